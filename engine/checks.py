@@ -1,0 +1,166 @@
+"""The flexural check of a beam section: results, code checks and warnings.
+
+`check` is the engine's main entry point. Its result carries every
+intermediate value an engineer needs to audit it, each code check with its
+ACI 318-19 clause, and the warnings, in the units the inputs came in
+(moments in kip·ft or kN·m).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from .flexure import FlexuralState, analyse
+from .limits import EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits
+from .required_steel import required_steel
+from .scope import scope_warnings
+from .section import RectangularBeam, rectangular_beam
+from .validation import hard_maximum, in_range
+
+CAUTION = (
+    "Rhoscope is a design aid, not a substitute for engineering judgement. "
+    "Verify every result against ACI 318-19 and the code adopted where the "
+    "structure is built, and have a licensed engineer check the design."
+)
+
+
+@dataclass(frozen=True)
+class CodeCheck:
+    """One pass/fail requirement, identified by its ACI 318-19 clause."""
+
+    clause: str
+    title: str
+    passed: bool
+    detail: str
+
+
+@dataclass(frozen=True)
+class FlexuralCheck:
+    """Everything the check found, in the units of `beam.system`."""
+
+    beam: RectangularBeam
+    state: FlexuralState
+    limits: ReinforcementLimits
+    Mn: float  # kip·ft or kN·m
+    phiMn: float
+    Mu: float | None
+    As_req: float | None  # least As for Mu within 9.3.3.1, when Mu is given
+    checks: tuple[CodeCheck, ...]
+    warnings: tuple[str, ...]
+
+    @property
+    def rho(self) -> float:
+        return self.beam.As / (self.beam.b * self.beam.d)
+
+    @property
+    def utilization(self) -> float | None:
+        """Mu / φMn, when Mu is given."""
+        return None if self.Mu is None else self.Mu / self.phiMn
+
+    @property
+    def ok(self) -> bool:
+        return all(item.passed for item in self.checks)
+
+    def to_dict(self) -> dict:
+        """The result under the stable names of the CLI's JSON contract."""
+        s, lim, beam = self.state, self.limits, self.beam
+        result = {
+            "units": beam.system.name,
+            "beta1": s.beta1, "eps_ty": s.eps_ty, "a": s.a, "c": s.c,
+            "eps_t": s.eps_t, "eps_s": s.eps_s, "fs": s.fs, "steel_yields": s.steel_yields,
+            "phi": s.phi, "Mn": self.Mn, "phiMn": self.phiMn,
+            "rho": self.rho, "As": beam.As,
+            "As_min": lim.As_min.value, "As_min_sqrt_term": lim.As_min.sqrt_term,
+            "As_min_flat_term": lim.As_min.flat_term,
+            "rho_min": lim.rho_min, "rho_tc": lim.rho_tc, "rho_max": lim.rho_max,
+            "rho_b": lim.rho_b, "As_tc": lim.As_tc, "As_max": lim.As_max, "As_b": lim.As_b,
+            "section_class": s.section_class.value,
+            "checks": [vars(item) for item in self.checks],
+            "ok": self.ok,
+            "warnings": list(self.warnings),
+            "caution": CAUTION,
+        }
+        if self.Mu is not None:
+            result.update(Mu=self.Mu, utilization=self.utilization, As_req=self.As_req)
+        return result
+
+
+def check(
+    *,
+    units: object,
+    fc: object,
+    fy: object,
+    b: object,
+    d: object,
+    As: object,
+    dt: object | None = None,
+    es: object | None = None,
+    Mu: object | None = None,
+    spiral: object = False,
+) -> FlexuralCheck:
+    """Check a singly reinforced rectangular section in flexure to ACI 318-19.
+
+    Inputs are in the base units of `units` ("us": psi, in, in², kip·ft;
+    "si": MPa, mm, mm², kN·m). Raises `InputError` naming the first bad field.
+    """
+    beam = rectangular_beam(units=units, fc=fc, fy=fy, b=b, d=d, As=As, dt=dt, es=es,
+                            spiral=spiral)
+    Mu_value = None if Mu is None else in_range(
+        "Mu", Mu, beam.system.moment, hard_maximum(beam.system, "moment"), allow_zero=True)
+    return check_beam(beam, Mu_value)
+
+
+def check_beam(beam: RectangularBeam, Mu: float | None = None) -> FlexuralCheck:
+    """`check` for an already validated beam; `Mu` in kip·ft or kN·m."""
+    state = analyse(beam)
+    limits = reinforcement_limits(beam)
+    to_quoted = 1.0 / beam.system.moment_to_base
+    Mn = state.Mn_base * to_quoted
+    phiMn = state.phi * Mn
+    As_req = None
+    if Mu is not None:
+        As_req = required_steel(beam, Mu * beam.system.moment_to_base)
+    warnings = scope_warnings(beam)
+    if not state.steel_yields:
+        warnings += (
+            f"The tension steel does not yield (fs = {state.fs:.4g} < fy = {beam.fy:g} "
+            f"{beam.system.stress}); c found by strain compatibility (ACI 318-19 22.2.1.2, 20.2.2.1).",)
+    checks = (_minimum_steel_check(beam, limits, As_req),
+              _strain_limit_check(state))
+    if Mu is not None:
+        checks += (_strength_check(beam, phiMn, Mu),)
+    return FlexuralCheck(beam=beam, state=state, limits=limits, Mn=Mn, phiMn=phiMn, Mu=Mu,
+                         As_req=As_req, checks=checks, warnings=warnings)
+
+
+def _minimum_steel_check(beam: RectangularBeam, limits: ReinforcementLimits,
+                         As_req: float | None) -> CodeCheck:
+    area = beam.system.area
+    As_min = limits.As_min.value
+    if beam.As >= As_min:
+        return CodeCheck("9.6.1.2", "As ≥ As,min", True,
+                         f"As = {beam.As:.4g} {area} ≥ As,min = {As_min:.4g} {area} "
+                         f"({limits.As_min.governing} governs)")
+    if As_req is not None and beam.As >= 4 / 3 * As_req:
+        return CodeCheck("9.6.1.3", "As ≥ As,min, or As ≥ 4/3 As,req", True,
+                         f"As = {beam.As:.4g} {area} < As,min = {As_min:.4g} {area}, but "
+                         f"As ≥ 4/3 × As,req = {4 / 3 * As_req:.4g} {area}, so 9.6.1.2 is waived")
+    return CodeCheck("9.6.1.2", "As ≥ As,min", False,
+                     f"As = {beam.As:.4g} {area} < As,min = {As_min:.4g} {area} "
+                     f"({limits.As_min.governing} governs; 9.6.1.3 waives it only where "
+                     f"As ≥ 4/3 of the As required by analysis)")
+
+
+def _strain_limit_check(state: FlexuralState) -> CodeCheck:
+    passed = state.eps_t >= EPS_T_BEAM_MINIMUM
+    sign = "≥" if passed else "<"
+    return CodeCheck("9.3.3.1", "εt ≥ 0.004", passed,
+                     f"εt = {state.eps_t:.5f} {sign} 0.004")
+
+
+def _strength_check(beam: RectangularBeam, phiMn: float, Mu: float) -> CodeCheck:
+    passed = phiMn >= Mu
+    sign = "≥" if passed else "<"
+    unit = beam.system.moment
+    return CodeCheck("9.5.1.1", "φMn ≥ Mu", passed,
+                     f"φMn = {phiMn:.4g} {unit} {sign} Mu = {Mu:.4g} {unit}")

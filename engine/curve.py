@@ -1,0 +1,76 @@
+"""Capacity against the tension steel ratio ρ, for the plot of limits.
+
+For fixed f'c, fy, b, d and dt, the curve gives Mn, φMn, φ and εt as ρ
+runs from 0 to well past ρb. The limit ratios (ρmin, tension-controlled,
+εt = 0.004, ρb) and the section's own ρ are included exactly, so a marker
+drawn at a limit sits on the curve.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+
+from .checks import check_beam
+from .flexure import analyse
+from .section import RectangularBeam, rectangular_beam
+from .strength_reduction import PHI_TENSION_CONTROLLED, SectionClass
+
+DEFAULT_POINTS = 400
+_PAST_BALANCED = 1.5  # the curve ends at 1.5 ρb (or past the section's own ρ)
+
+
+@dataclass(frozen=True)
+class CapacityCurve:
+    """Columns of equal length, ordered by ρ; moments in kip·ft or kN·m.
+
+    At ρ = 0 there is no steel: Mn = φMn = 0, φ = 0.90 and εt is infinite.
+    """
+
+    rho: tuple[float, ...]
+    As: tuple[float, ...]
+    Mn: tuple[float, ...]
+    phiMn: tuple[float, ...]
+    phi: tuple[float, ...]
+    eps_t: tuple[float, ...]
+    section_class: tuple[str, ...]
+    marks: dict[str, float]  # rho_min, rho_tc, rho_max, rho_b, rho (the section's own)
+
+    def to_dict(self) -> dict:
+        columns = {name: list(getattr(self, name)) for name in
+                   ("rho", "As", "Mn", "phiMn", "phi", "section_class")}
+        columns["eps_t"] = [None if math.isinf(e) else e for e in self.eps_t]
+        return {**columns, "marks": dict(self.marks)}
+
+
+def capacity_curve(*, points: int = DEFAULT_POINTS, **inputs) -> CapacityCurve:
+    """The curve for the section described by `inputs` (as for `check`)."""
+    inputs.pop("Mu", None)
+    return curve_for_beam(rectangular_beam(**inputs), points)
+
+
+def curve_for_beam(beam: RectangularBeam, points: int = DEFAULT_POINTS) -> CapacityCurve:
+    """The curve for an already validated beam, `points` evenly spaced ratios plus the marks."""
+    result = check_beam(beam)
+    limits = result.limits
+    marks = {"rho_min": limits.rho_min, "rho_tc": limits.rho_tc, "rho_max": limits.rho_max,
+             "rho_b": limits.rho_b, "rho": result.rho}
+    bd = beam.b * beam.d
+    rho_end = max(_PAST_BALANCED * limits.rho_b, 1.1 * result.rho)
+    ratios = sorted({rho_end * i / (points - 1) for i in range(points)} | set(marks.values()))
+    to_quoted = 1.0 / beam.system.moment_to_base
+    columns: dict[str, list] = {name: [] for name in
+                                ("rho", "As", "Mn", "phiMn", "phi", "eps_t", "section_class")}
+    for rho in ratios:
+        if rho <= 0:
+            row = (0.0, 0.0, 0.0, 0.0, PHI_TENSION_CONTROLLED, math.inf,
+                   SectionClass.TENSION_CONTROLLED.value)
+        else:
+            state = analyse(beam.with_steel(rho * bd))
+            Mn = state.Mn_base * to_quoted
+            row = (rho, rho * bd, Mn, state.phi * Mn, state.phi, state.eps_t,
+                   state.section_class.value)
+        for column, value in zip(columns.values(), row):
+            column.append(value)
+    return CapacityCurve(**{name: tuple(values) for name, values in columns.items()},
+                         marks=marks)

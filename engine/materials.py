@@ -1,0 +1,46 @@
+"""Concrete and steel properties that ACI 318-19 fixes, each with its clause."""
+
+from __future__ import annotations
+
+from .units import US, UnitSystem
+
+EPS_CU = 0.003
+"""Maximum usable strain at the extreme concrete compression fibre, ACI 318-19 22.2.2.1."""
+
+BLOCK_STRESS_FACTOR = 0.85
+"""Stress of the equivalent rectangular block, 0.85 f'c, ACI 318-19 22.2.2.4.1."""
+
+# ACI 318-19 Table 22.2.2.4.3, in each system's own terms: (f'c up to which
+# β1 = 0.85, f'c from which β1 = 0.65, drop of 0.05 per this much f'c).
+_BETA1_TABLE = {
+    "us": (4000.0, 8000.0, 1000.0),
+    "si": (28.0, 55.0, 7.0),
+}
+
+
+def beta1(fc: float, system: UnitSystem = US) -> float:
+    """β1, the ratio of stress-block depth a to neutral-axis depth c.
+
+    ACI 318-19 Table 22.2.2.4.3. Below the table's lowest f'c the top row
+    (0.85) is used; the caller warns that such concrete is out of scope.
+    """
+    upper_flat, lower_flat, per_step = _BETA1_TABLE[system.name]
+    if fc <= upper_flat:
+        return 0.85
+    if fc >= lower_flat:
+        return 0.65
+    return 0.85 - 0.05 * (fc - upper_flat) / per_step
+
+
+def yield_strain(fy: float, es: float) -> float:
+    """εty = fy / Es for deformed reinforcement, ACI 318-19 21.2.2.1."""
+    return fy / es
+
+
+def steel_stress(strain: float, fy: float, es: float) -> float:
+    """Stress in deformed reinforcement, elastic-perfectly plastic.
+
+    Below yield fs = Es·εs; beyond it fs = fy (ACI 318-19 20.2.2.1).
+    Compression strain is negative and gives a negative stress.
+    """
+    return max(-fy, min(fy, es * strain))

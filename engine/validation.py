@@ -1,0 +1,59 @@
+"""Checks every public entry point applies to its inputs, once, at the edge.
+
+Hard ranges here are the limits of what the engine will compute at all (a
+number, finite, positive, of a physically possible size). Limits of ACI
+318-19's stated scope are softer: such values are computed and warned about
+in `scope.py`.
+"""
+
+from __future__ import annotations
+
+import math
+from numbers import Real
+
+from .errors import InputError
+from .units import UnitSystem
+
+# Upper bounds well past any real beam, so a typo (an extra zero) is caught
+# while every practical and most unusual sections still compute.
+_HARD_MAXIMA = {
+    "us": {"stress_fc": 30_000.0, "stress_fy": 200_000.0, "modulus": 100_000_000.0,
+           "length": 1_200.0, "moment": 1.0e7},
+    "si": {"stress_fc": 200.0, "stress_fy": 1_400.0, "modulus": 700_000.0,
+           "length": 30_000.0, "moment": 1.4e7},
+}
+
+
+def hard_maximum(system: UnitSystem, kind: str) -> float:
+    """The largest value of `kind` the engine computes in `system`."""
+    return _HARD_MAXIMA[system.name][kind]
+
+
+def number(field: str, value: object) -> float:
+    """`value` as a finite float, or an `InputError` naming `field`."""
+    if isinstance(value, bool) or not isinstance(value, Real):
+        raise InputError(field, value, "a number")
+    result = float(value)
+    if not math.isfinite(result):
+        raise InputError(field, value, "a finite number")
+    return result
+
+
+def in_range(
+    field: str, value: object, unit: str, maximum: float, *, allow_zero: bool = False
+) -> float:
+    """`value` as a float in (0, maximum] (or [0, maximum] with `allow_zero`)."""
+    result = number(field, value)
+    low_ok = result >= 0 if allow_zero else result > 0
+    if not low_ok or result > maximum:
+        bracket = "[0" if allow_zero else "(0"
+        raise InputError(field, value, f"a number in {bracket}, {maximum:g}] {unit}",
+                         why="zero or negative" if not low_ok else "larger than any real beam")
+    return result
+
+
+def flag(field: str, value: object) -> bool:
+    """`value` as a bool; only real booleans are accepted."""
+    if not isinstance(value, bool):
+        raise InputError(field, value, "true or false")
+    return value
