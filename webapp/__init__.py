@@ -1,0 +1,1 @@
+"""Rhoscope's browser app: a thin Panel shell over the engine."""
