@@ -1,0 +1,67 @@
+"""`check` (one section) and `curve` (capacity against ρ)."""
+
+from __future__ import annotations
+
+import argparse
+import json
+
+from ..checks import CAUTION, FlexuralCheck, check
+from ..curve import DEFAULT_POINTS, capacity_curve
+from ..errors import InputError
+from .arguments import add_section_flags, parse_float, section_inputs
+
+
+def register(commands) -> None:
+    check_parser = commands.add_parser("check", help="check one section")
+    add_section_flags(check_parser)
+    check_parser.add_argument("--mu", metavar="F", help="Mu, factored moment (kip·ft or kN·m)")
+    check_parser.set_defaults(run=run_check)
+    curve_parser = commands.add_parser("curve", help="capacity against ρ, for a plot")
+    add_section_flags(curve_parser)
+    curve_parser.add_argument("--points", type=int, default=DEFAULT_POINTS, metavar="N",
+                              help=f"evenly spaced ratios (default {DEFAULT_POINTS}), plus the limits")
+    curve_parser.set_defaults(run=run_curve)
+
+
+def run_check(args: argparse.Namespace) -> str:
+    result = check(**section_inputs(args), Mu=parse_float("Mu", args.mu))
+    return json.dumps(result.to_dict(), ensure_ascii=False) if args.json else summary(result)
+
+
+def run_curve(args: argparse.Namespace) -> str:
+    if not 2 <= args.points <= 100_000:
+        raise InputError("points", args.points, "a whole number from 2 to 100000")
+    curve = capacity_curve(**section_inputs(args), points=args.points)
+    if args.json:
+        return json.dumps(curve.to_dict(), ensure_ascii=False)
+    return "\n".join(f"ρ = {r:.5f}  φMn = {m:.4g}  φ = {p:.3f}  {k}" for r, m, p, k in
+                     zip(curve.rho, curve.phiMn, curve.phi, curve.section_class))
+
+
+def summary(result: FlexuralCheck) -> str:
+    """A readable, plain-text account of one check."""
+    beam, s, lim = result.beam, result.state, result.limits
+    u = beam.system
+    lines = [
+        f"Singly reinforced rectangular section, ACI 318-19 ({u.name.upper()} units)",
+        f"  f'c = {beam.fc:g} {u.stress}   fy = {beam.fy:g} {u.stress}   Es = {beam.es:g} {u.stress}",
+        f"  b = {beam.b:g} {u.length}   d = {beam.d:g} {u.length}   dt = {beam.dt:g} {u.length}"
+        f"   As = {beam.As:g} {u.area}",
+        "",
+        f"  β1 = {s.beta1:.3f}   εty = {s.eps_ty:.5f}",
+        f"  c = {s.c:.4g} {u.length}   a = {s.a:.4g} {u.length}   εt = {s.eps_t:.5f}"
+        f"   fs = {s.fs:.5g} {u.stress} ({'yields' if s.steel_yields else 'does not yield'})",
+        f"  Mn = {result.Mn:.4g} {u.moment}   φ = {s.phi:.3f}   φMn = {result.phiMn:.4g} {u.moment}",
+        f"  class: {s.section_class.value}",
+        "",
+        f"  ρ = {result.rho:.5f}   ρmin = {lim.rho_min:.5f}   ρtc = {lim.rho_tc:.5f}"
+        f"   ρ(εt=0.004) = {lim.rho_max:.5f}   ρb = {lim.rho_b:.5f}",
+    ]
+    if result.Mu is not None:
+        lines.append(f"  Mu = {result.Mu:g} {u.moment}   Mu/φMn = {result.utilization:.3f}")
+    lines.append("")
+    lines += [f"  [{'PASS' if c.passed else 'FAIL'}] {c.clause} {c.title}: {c.detail}"
+              for c in result.checks]
+    lines += [f"  warning: {w}" for w in result.warnings]
+    lines += ["", CAUTION]
+    return "\n".join(lines)
