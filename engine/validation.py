@@ -47,8 +47,9 @@ def in_range(
     low_ok = result >= 0 if allow_zero else result > 0
     if not low_ok or result > maximum:
         bracket = "[0" if allow_zero else "(0"
-        raise InputError(field, value, f"a number in {bracket}, {maximum:g}] {unit}",
-                         why="zero or negative" if not low_ok else "larger than any real beam")
+        too_low = "negative" if allow_zero else "zero or negative"
+        raise InputError(field, value, f"a number in {bracket}, {maximum:,.10g}] {unit}",
+                         why=too_low if not low_ok else "larger than any real beam")
     return result
 
 
