@@ -2,9 +2,13 @@
 
 from __future__ import annotations
 
+import math
+
 from .flexure import analyse
 from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
+from .materials import BLOCK_STRESS_FACTOR
 from .section import RectangularBeam
+from .strength_reduction import PHI_TENSION_CONTROLLED, SectionClass
 
 _GRID = 48  # coarse scan: φMn can fall in the transition zone, so no blind bisection
 _BISECTIONS = 60
@@ -26,6 +30,9 @@ def required_steel(beam: RectangularBeam, Mu_base: float) -> float | None:
     """
     if Mu_base <= 0:
         return 0.0
+    closed_form = _tension_controlled_steel(beam, Mu_base)
+    if closed_form is not None:
+        return closed_form
     As_limit = steel_for_strain(beam, EPS_T_BEAM_MINIMUM)
     below = 0.0
     for step in range(1, _GRID + 1):
@@ -42,3 +49,24 @@ def required_steel(beam: RectangularBeam, Mu_base: float) -> float | None:
         else:
             below = middle
     return above
+
+
+def _tension_controlled_steel(beam: RectangularBeam, Mu_base: float) -> float | None:
+    """As from Mu/φ = As·fy·(d − As·fy/(2·0.85·f'c·b)) with φ = 0.90, if that holds.
+
+    The usual closed form for yielded, tension-controlled steel (22.2.2.4.1,
+    Table 21.2.2). Its smaller root is the least As; it is returned only when
+    the section it gives really is tension-controlled with yielded steel,
+    otherwise None and the caller searches.
+    """
+    Mn_required = Mu_base / PHI_TENSION_CONTROLLED
+    lever = beam.fy * beam.d
+    k = beam.fy**2 / (2 * BLOCK_STRESS_FACTOR * beam.fc * beam.b)
+    discriminant = lever**2 - 4 * k * Mn_required
+    if discriminant < 0:
+        return None
+    As = 2 * Mn_required / (lever + math.sqrt(discriminant))
+    state = analyse(beam.with_steel(As))
+    if state.steel_yields and state.section_class is SectionClass.TENSION_CONTROLLED:
+        return As
+    return None
