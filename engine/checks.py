@@ -14,7 +14,7 @@ from .flexure import FlexuralState, analyse
 from .limits import EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits
 from .required_steel import required_steel
 from .scope import scope_warnings
-from .section import RectangularBeam, rectangular_beam
+from .section import BeamSection, beam_section
 from .validation import hard_maximum, in_range
 
 CAUTION = (
@@ -38,7 +38,7 @@ class CodeCheck:
 class FlexuralCheck:
     """Everything the check found, in the units of `beam.system`."""
 
-    beam: RectangularBeam
+    beam: BeamSection
     state: FlexuralState
     limits: ReinforcementLimits
     Mn: float  # kip·ft or kN·m
@@ -75,6 +75,12 @@ class FlexuralCheck:
             "rho_min": lim.rho_min, "rho_tc": lim.rho_tc, "rho_max": lim.rho_max,
             "rho_b": lim.rho_b, "As_tc": lim.As_tc, "As_max": lim.As_max, "As_b": lim.As_b,
             "section_class": s.section_class.value,
+            "b": beam.bw, "d": beam.d, "dt": beam.dt, "h": beam.h,
+            "bf": None if beam.flange is None else beam.flange.width,
+            "hf": None if beam.flange is None else beam.flange.thickness,
+            "layers": [{"area": ls.layer.area, "depth": ls.layer.depth, "role": ls.layer.role.value,
+                        "strain": ls.strain, "stress": ls.stress, "yields": ls.yields}
+                       for ls in s.layers],
             "checks": [vars(item) for item in self.checks],
             "ok": self.ok,
             "warnings": list(self.warnings),
@@ -85,32 +91,21 @@ class FlexuralCheck:
         return result
 
 
-def check(
-    *,
-    units: object,
-    fc: object,
-    fy: object,
-    b: object,
-    d: object,
-    As: object,
-    dt: object | None = None,
-    es: object | None = None,
-    Mu: object | None = None,
-    spiral: object = False,
-) -> FlexuralCheck:
-    """Check a singly reinforced rectangular section in flexure to ACI 318-19.
+def check(*, Mu: object | None = None, **section) -> FlexuralCheck:
+    """Check a beam section in flexure to ACI 318-19.
 
+    `section` takes the keywords of `engine.section.beam_section`: units, fc,
+    fy, b, d, As, and optionally dt, es, spiral, h, bf, hf, asc, dc, layers.
     Inputs are in the base units of `units` ("us": psi, in, in², kip·ft;
     "si": MPa, mm, mm², kN·m). Raises `InputError` naming the first bad field.
     """
-    beam = rectangular_beam(units=units, fc=fc, fy=fy, b=b, d=d, As=As, dt=dt, es=es,
-                            spiral=spiral)
+    beam = beam_section(**section)
     Mu_value = None if Mu is None else in_range(
         "Mu", Mu, beam.system.moment, hard_maximum(beam.system, "moment"), allow_zero=True)
     return check_beam(beam, Mu_value)
 
 
-def check_beam(beam: RectangularBeam, Mu: float | None = None) -> FlexuralCheck:
+def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
     """`check` for an already validated beam; `Mu` in kip·ft or kN·m."""
     state = analyse(beam)
     limits = reinforcement_limits(beam)
@@ -133,7 +128,7 @@ def check_beam(beam: RectangularBeam, Mu: float | None = None) -> FlexuralCheck:
                          As_req=As_req, checks=checks, warnings=warnings)
 
 
-def _minimum_steel_check(beam: RectangularBeam, limits: ReinforcementLimits,
+def _minimum_steel_check(beam: BeamSection, limits: ReinforcementLimits,
                          As_req: float | None) -> CodeCheck:
     area = beam.system.area
     As_min = limits.As_min.value
@@ -158,7 +153,7 @@ def _strain_limit_check(state: FlexuralState) -> CodeCheck:
                      f"εt = {state.eps_t:.5f} {sign} 0.004")
 
 
-def _strength_check(beam: RectangularBeam, phiMn: float, Mu: float) -> CodeCheck:
+def _strength_check(beam: BeamSection, phiMn: float, Mu: float) -> CodeCheck:
     passed = phiMn >= Mu
     sign = "≥" if passed else "<"
     unit = beam.system.moment

@@ -12,8 +12,8 @@ import math
 from dataclasses import dataclass
 
 from .checks import check_beam
-from .flexure import analyse
-from .section import RectangularBeam, rectangular_beam
+from .flexure import capacity_point
+from .section import BeamSection, beam_section
 from .strength_reduction import PHI_TENSION_CONTROLLED, SectionClass
 
 DEFAULT_POINTS = 400
@@ -46,10 +46,10 @@ class CapacityCurve:
 def capacity_curve(*, points: int = DEFAULT_POINTS, **inputs) -> CapacityCurve:
     """The curve for the section described by `inputs` (as for `check`)."""
     inputs.pop("Mu", None)
-    return curve_for_beam(rectangular_beam(**inputs), points)
+    return curve_for_beam(beam_section(**inputs), points)
 
 
-def curve_for_beam(beam: RectangularBeam, points: int = DEFAULT_POINTS) -> CapacityCurve:
+def curve_for_beam(beam: BeamSection, points: int = DEFAULT_POINTS) -> CapacityCurve:
     """The curve for an already validated beam, `points` evenly spaced ratios plus the marks."""
     result = check_beam(beam)
     limits = result.limits
@@ -66,10 +66,10 @@ def curve_for_beam(beam: RectangularBeam, points: int = DEFAULT_POINTS) -> Capac
             row = (0.0, 0.0, 0.0, 0.0, PHI_TENSION_CONTROLLED, math.inf,
                    SectionClass.TENSION_CONTROLLED.value)
         else:
-            state = analyse(beam.with_steel(rho * bd))
-            Mn = state.Mn_base * to_quoted
-            row = (rho, rho * bd, Mn, state.phi * Mn, state.phi, state.eps_t,
-                   state.section_class.value)
+            point = capacity_point(beam.with_tension_area(rho * bd))
+            Mn = point.Mn_base * to_quoted
+            row = (rho, rho * bd, Mn, point.phi * Mn, point.phi, point.eps_t,
+                   point.section_class.value)
         for column, value in zip(columns.values(), row):
             column.append(value)
     return CapacityCurve(**{name: tuple(values) for name, values in columns.items()},

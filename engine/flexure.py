@@ -1,21 +1,33 @@
-"""Nominal flexural strength of a singly reinforced rectangular section.
+"""Nominal flexural strength of a beam section by strain compatibility.
 
 ACI 318-19 22.2: plane sections (22.2.1.2), εcu = 0.003 at the extreme
 compression fibre (22.2.2.1), concrete tension neglected (22.2.2.2), the
-equivalent rectangular block 0.85 f'c over a = β1·c (22.2.2.4.1), and steel
-stress from its strain (20.2.2.1). Yield is never assumed: when the steel
-strain at d is below εty, c comes from strain compatibility instead.
-All values are in the beam's base units (force·length for moments).
+equivalent rectangular block 0.85 f'c over a = β1·c (22.2.2.4.1), and each
+layer's stress from its strain (20.2.2.1). Yield is never assumed: c comes
+from `equilibrium.solve_neutral_axis` for every section. Values are in the
+section's base units (force·length for moments); strains and stresses are
+reported tension positive, as engineers quote εt and fs.
 """
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 
-from .materials import BLOCK_STRESS_FACTOR, EPS_CU, beta1, yield_strain
-from .section import RectangularBeam
+from .equilibrium import in_block, layer_force, solve_neutral_axis
+from .materials import EPS_CU, beta1, steel_stress, yield_strain
+from .section import BeamSection, Role, SteelLayer
 from .strength_reduction import SectionClass, phi_flexure, section_class
+from .stress_block import block_force
+
+
+@dataclass(frozen=True)
+class LayerState:
+    """One steel layer at nominal strength; strain and stress tension positive."""
+
+    layer: SteelLayer
+    strain: float
+    stress: float
+    yields: bool
 
 
 @dataclass(frozen=True)
@@ -26,50 +38,78 @@ class FlexuralState:
     eps_ty: float
     a: float
     c: float
-    eps_s: float  # strain at the steel centroid d
+    eps_s: float  # strain at the tension steel centroid d
     eps_t: float  # net tensile strain at dt
-    fs: float
-    steel_yields: bool
+    fs: float  # stress in the deepest tension layer
+    steel_yields: bool  # every tension layer has yielded
     Mn_base: float  # nominal moment, base units (lb·in or N·mm)
     phi: float
     section_class: SectionClass
+    layers: tuple[LayerState, ...]
+    residual: float  # net axial force left by the solver, base units
 
 
-def neutral_axis_depth(beam: RectangularBeam, b1: float, eps_ty: float) -> tuple[float, float]:
-    """c and the steel stress fs that satisfy equilibrium C = T.
+@dataclass(frozen=True)
+class CapacityPoint:
+    """The few values a capacity curve needs, without the per-layer detail."""
 
-    First with fs = fy (ACI 318-19 20.2.2.1, yielded steel). If the strain at d
-    that this c implies is below εty the steel has not yielded and fs = Es·εs;
-    then 0.85 f'c b β1 c = As Es εcu (d − c)/c, a quadratic in c whose positive
-    root is written in the form that does not cancel for small As.
+    Mn_base: float
+    phi: float
+    eps_t: float
+    section_class: SectionClass
+
+
+def nominal_moment(section: BeamSection, c: float, b1: float) -> float:
+    """Mn for neutral-axis depth c: every force's moment about the tension centroid.
+
+    With equilibrium the reference depth does not matter; about d a single
+    layer drops out and this is the textbook C·(d − a/2).
     """
-    block = BLOCK_STRESS_FACTOR * beam.fc * beam.b * b1
-    c_yielded = beam.As * beam.fy / block
-    if EPS_CU * (beam.d - c_yielded) >= eps_ty * c_yielded:
-        return c_yielded, beam.fy
-    stiffness = beam.As * beam.es * EPS_CU
-    c = 2 * stiffness * beam.d / (stiffness + math.sqrt(stiffness**2 + 4 * block * stiffness * beam.d))
-    return c, beam.es * EPS_CU * (beam.d - c) / c
+    d = section.d
+    concrete, concrete_depth = block_force(section, b1 * c)
+    Mn = concrete * (d - concrete_depth)
+    for layer in section.layers:
+        inside = in_block(layer.depth, c, b1)
+        Mn += layer_force(section, layer.depth, layer.area, c, inside) * (d - layer.depth)
+    return Mn
 
 
-def analyse(beam: RectangularBeam) -> FlexuralState:
+def capacity_point(section: BeamSection) -> CapacityPoint:
+    """Mn, φ, εt and the class: `analyse` without the detail, for dense curves."""
+    b1 = beta1(section.fc, section.system)
+    eps_ty = yield_strain(section.fy, section.es)
+    c = solve_neutral_axis(section, b1).c
+    eps_t = EPS_CU * (section.dt - c) / c
+    return CapacityPoint(nominal_moment(section, c, b1), phi_flexure(eps_t, eps_ty, section.spiral),
+                         eps_t, section_class(eps_t, eps_ty))
+
+
+def analyse(section: BeamSection) -> FlexuralState:
     """The section's state at nominal flexural strength, ACI 318-19 22.2."""
-    b1 = beta1(beam.fc, beam.system)
-    eps_ty = yield_strain(beam.fy, beam.es)
-    c, fs = neutral_axis_depth(beam, b1, eps_ty)
-    a = b1 * c
-    eps_s = EPS_CU * (beam.d - c) / c
-    eps_t = EPS_CU * (beam.dt - c) / c  # linear strain profile, 22.2.1.2
+    b1 = beta1(section.fc, section.system)
+    eps_ty = yield_strain(section.fy, section.es)
+    root = solve_neutral_axis(section, b1)
+    c = root.c
+    layers = []
+    for layer in section.layers:
+        strain = EPS_CU * (layer.depth - c) / c
+        stress = steel_stress(strain, section.fy, section.es)
+        layers.append(LayerState(layer, strain, stress, abs(stress) >= section.fy))
+    tension = [state for state in layers if state.layer.role is Role.TENSION]
+    deepest = max(tension, key=lambda state: state.layer.depth)
+    eps_t = EPS_CU * (section.dt - c) / c  # linear strain profile, 22.2.1.2
     return FlexuralState(
         beta1=b1,
         eps_ty=eps_ty,
-        a=a,
+        a=b1 * c,
         c=c,
-        eps_s=eps_s,
+        eps_s=EPS_CU * (section.d - c) / c,
         eps_t=eps_t,
-        fs=fs,
-        steel_yields=fs >= beam.fy,
-        Mn_base=beam.As * fs * (beam.d - a / 2),  # T about the block's centroid
-        phi=phi_flexure(eps_t, eps_ty, beam.spiral),
+        fs=deepest.stress,
+        steel_yields=all(state.yields and state.stress > 0 for state in tension),
+        Mn_base=nominal_moment(section, c, b1),
+        phi=phi_flexure(eps_t, eps_ty, section.spiral),
         section_class=section_class(eps_t, eps_ty),
+        layers=tuple(layers),
+        residual=root.residual,
     )

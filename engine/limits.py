@@ -1,8 +1,10 @@
 """Reinforcement limits at the section's f'c and fy, each with its clause.
 
 The strain limits are found by fixing εt at dt, which fixes c by the linear
-strain profile (22.2.1.2), and then asking what As balances the block:
-As = 0.85 f'c β1 c b / fs, with fs from the strain at d (20.2.2.1).
+strain profile (22.2.1.2), and so every layer's strain and stress (20.2.2.1)
+and the block (22.2.2.4.1). The tension layers, scaled together, must then
+balance the rest; for a singly reinforced rectangle this is the textbook
+As = 0.85 f'c β1 c b / fs.
 """
 
 from __future__ import annotations
@@ -10,8 +12,10 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .materials import BLOCK_STRESS_FACTOR, EPS_CU, beta1, steel_stress, yield_strain
-from .section import RectangularBeam
+from .equilibrium import in_block, layer_force
+from .materials import EPS_CU, beta1, yield_strain
+from .section import BeamSection, Role
+from .stress_block import block_force
 from .strength_reduction import TENSION_CONTROL_MARGIN
 
 EPS_T_BEAM_MINIMUM = 0.004
@@ -39,7 +43,7 @@ class AsMin:
 
 @dataclass(frozen=True)
 class ReinforcementLimits:
-    """Steel areas at each limit and their ratios to b·d."""
+    """Tension steel areas at each limit and their ratios to bw·d."""
 
     As_min: AsMin
     As_tc: float  # εt = εty + 0.003: tension-controlled limit, Table 21.2.2
@@ -64,30 +68,38 @@ class ReinforcementLimits:
         return self.As_b / self.bd
 
 
-def minimum_steel(beam: RectangularBeam) -> AsMin:
-    """As,min, ACI 318-19 9.6.1.2 (9.6.1.3 may waive it; see `checks`)."""
+def minimum_steel(beam: BeamSection) -> AsMin:
+    """As,min on the web width, ACI 318-19 9.6.1.2 (9.6.1.3 may waive it; see `checks`)."""
     k_sqrt, k_flat = _AS_MIN_COEFFICIENTS[beam.system.name]
-    bd_over_fy = beam.b * beam.d / beam.fy
+    bd_over_fy = beam.bw * beam.d / beam.fy
     return AsMin(sqrt_term=k_sqrt * math.sqrt(beam.fc) * bd_over_fy,
                  flat_term=k_flat * bd_over_fy)
 
 
-def steel_for_strain(beam: RectangularBeam, eps_t: float) -> float:
+def steel_for_strain(beam: BeamSection, eps_t: float) -> float:
     """The tension steel area that puts the strain at dt at exactly `eps_t`.
 
-    c = εcu·dt / (εcu + εt) from the strain profile (22.2.1.2); the strain at
-    d then sets fs. If that strain is not tensile no area can reach `eps_t`
-    and the result is infinite.
+    With c = εcu·dt / (εcu + εt) (22.2.1.2) every force but the tension
+    layers' is fixed, and theirs is proportional to a common scale factor,
+    so equilibrium gives the factor directly. Infinite when the tension
+    layers would not be in tension; zero when the rest is already in tension.
     """
     b1 = beta1(beam.fc, beam.system)
     c = EPS_CU * beam.dt / (EPS_CU + eps_t)
-    fs = steel_stress(EPS_CU * (beam.d - c) / c, beam.fy, beam.es)
-    if fs <= 0:
+    fixed = block_force(beam, b1 * c)[0]
+    scaled = 0.0
+    for layer in beam.layers:
+        force = layer_force(beam, layer.depth, layer.area, c, in_block(layer.depth, c, b1))
+        if layer.role is Role.TENSION:
+            scaled += force
+        else:
+            fixed += force
+    if scaled >= 0:
         return math.inf
-    return BLOCK_STRESS_FACTOR * beam.fc * b1 * c * beam.b / fs
+    return max(0.0, -fixed / scaled) * beam.As
 
 
-def reinforcement_limits(beam: RectangularBeam) -> ReinforcementLimits:
+def reinforcement_limits(beam: BeamSection) -> ReinforcementLimits:
     """Every limit the check compares As with."""
     eps_ty = yield_strain(beam.fy, beam.es)
     return ReinforcementLimits(
@@ -95,5 +107,5 @@ def reinforcement_limits(beam: RectangularBeam) -> ReinforcementLimits:
         As_tc=steel_for_strain(beam, eps_ty + TENSION_CONTROL_MARGIN),
         As_max=steel_for_strain(beam, EPS_T_BEAM_MINIMUM),
         As_b=steel_for_strain(beam, eps_ty),
-        bd=beam.b * beam.d,
+        bd=beam.bw * beam.d,
     )

@@ -4,23 +4,23 @@ from __future__ import annotations
 
 import math
 
-from .flexure import analyse
+from .flexure import analyse, capacity_point
 from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
 from .materials import BLOCK_STRESS_FACTOR
-from .section import RectangularBeam
+from .section import BeamSection
 from .strength_reduction import PHI_TENSION_CONTROLLED, SectionClass
 
 _GRID = 48  # coarse scan: φMn can fall in the transition zone, so no blind bisection
 _BISECTIONS = 60
 
 
-def design_moment(beam: RectangularBeam, As: float) -> float:
+def design_moment(beam: BeamSection, As: float) -> float:
     """φMn in base units for `beam` with `As` of tension steel."""
-    state = analyse(beam.with_steel(As))
-    return state.phi * state.Mn_base
+    point = capacity_point(beam.with_tension_area(As))
+    return point.phi * point.Mn_base
 
 
-def required_steel(beam: RectangularBeam, Mu_base: float) -> float | None:
+def required_steel(beam: BeamSection, Mu_base: float) -> float | None:
     """Least As with φMn ≥ Mu and εt ≥ 0.004 (9.3.3.1), or None if none exists.
 
     φMn rises with As while the section is tension-controlled but may fall
@@ -51,14 +51,16 @@ def required_steel(beam: RectangularBeam, Mu_base: float) -> float | None:
     return above
 
 
-def _tension_controlled_steel(beam: RectangularBeam, Mu_base: float) -> float | None:
+def _tension_controlled_steel(beam: BeamSection, Mu_base: float) -> float | None:
     """As from Mu/φ = As·fy·(d − As·fy/(2·0.85·f'c·b)) with φ = 0.90, if that holds.
 
     The usual closed form for yielded, tension-controlled steel (22.2.2.4.1,
     Table 21.2.2). Its smaller root is the least As; it is returned only when
     the section it gives really is tension-controlled with yielded steel,
-    otherwise None and the caller searches.
+    otherwise None and the caller searches. Only for one layer in a rectangle.
     """
+    if not beam.is_rectangular or len(beam.layers) != 1:
+        return None
     Mn_required = Mu_base / PHI_TENSION_CONTROLLED
     lever = beam.fy * beam.d
     k = beam.fy**2 / (2 * BLOCK_STRESS_FACTOR * beam.fc * beam.b)
@@ -66,7 +68,7 @@ def _tension_controlled_steel(beam: RectangularBeam, Mu_base: float) -> float | 
     if discriminant < 0:
         return None
     As = 2 * Mn_required / (lever + math.sqrt(discriminant))
-    state = analyse(beam.with_steel(As))
+    state = analyse(beam.with_tension_area(As))
     if state.steel_yields and state.section_class is SectionClass.TENSION_CONTROLLED:
         return As
     return None

@@ -6,7 +6,7 @@ still applies to the job at hand.
 
 from __future__ import annotations
 
-from .section import RectangularBeam
+from .section import BeamSection
 
 # (f'c minimum, fy for special seismic systems, fy maximum for flexure, fy
 # minimum of the listed grades), per system.
@@ -16,7 +16,7 @@ _SCOPE = {
 }
 
 
-def scope_warnings(beam: RectangularBeam) -> tuple[str, ...]:
+def scope_warnings(beam: BeamSection) -> tuple[str, ...]:
     """Plain-text warnings for the inputs of `beam`, empty when all are in scope."""
     fc_min, fy_seismic, fy_max, fy_min = _SCOPE[beam.system.name]
     stress = beam.system.stress

@@ -1,66 +1,198 @@
-"""The section being checked: geometry, materials and steel, validated.
+"""The section being checked: shape, materials and steel layers, validated.
 
-A `RectangularBeam` is a singly reinforced rectangular section with its
-tension steel lumped at the centroid depth d; εt is read at dt, the depth of
-the extreme tension layer (dt = d for one layer).
+One model serves every case: a web of width bw (the `b` of a rectangle),
+an optional flange on the compression side, and any number of steel
+layers, each an area at a depth from the compression face. A layer is
+tension or compression reinforcement by how it was given (`role`); the
+limits and the capacity curve vary the tension layers together.
+
+Depths, widths and areas are in the base units of `system` (in, in² or
+mm, mm²); stresses in psi or MPa.
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass, replace
+from collections.abc import Iterable
+from dataclasses import dataclass
+from functools import cached_property
+from enum import Enum
 
 from .errors import InputError
 from .units import UnitSystem, unit_system
 from .validation import flag, hard_maximum, in_range
 
 
+class Role(str, Enum):
+    TENSION = "tension"
+    COMPRESSION = "compression"
+
+
 @dataclass(frozen=True)
-class RectangularBeam:
-    """Inputs of one check, in the base units of `system` (psi, in or MPa, mm)."""
+class SteelLayer:
+    """Bars at one depth, lumped at their centroid."""
+
+    area: float
+    depth: float
+    role: Role = Role.TENSION
+
+
+@dataclass(frozen=True)
+class Flange:
+    """Effective flange on the compression face: width bf and thickness hf."""
+
+    width: float
+    thickness: float
+
+
+@dataclass(frozen=True)
+class BeamSection:
+    """Inputs of one check, in the base units of `system`.
+
+    `dt` is where εt is read: the extreme tension layer, or deeper where a
+    lumped tension layer stands for several (issue 2's `--dt`).
+    """
 
     system: UnitSystem
     fc: float
     fy: float
-    b: float
-    d: float
-    As: float
-    dt: float
     es: float
+    bw: float
+    layers: tuple[SteelLayer, ...]
+    dt: float
+    h: float | None = None
+    flange: Flange | None = None
     spiral: bool = False
 
-    def with_steel(self, As: float) -> "RectangularBeam":
-        """The same section with another tension steel area (trusted: As > 0)."""
-        return replace(self, As=As)
+    @property
+    def b(self) -> float:
+        """The web width bw (the width b of a rectangle)."""
+        return self.bw
+
+    @cached_property
+    def tension_layers(self) -> tuple[SteelLayer, ...]:
+        return tuple(layer for layer in self.layers if layer.role is Role.TENSION)
+
+    @cached_property
+    def As(self) -> float:
+        """Total tension steel area."""
+        return sum(layer.area for layer in self.tension_layers)
+
+    @cached_property
+    def d(self) -> float:
+        """Depth to the centroid of the tension steel."""
+        return sum(layer.area * layer.depth for layer in self.tension_layers) / self.As
+
+    @property
+    def is_rectangular(self) -> bool:
+        return self.flange is None
+
+    def with_tension_area(self, As: float) -> "BeamSection":
+        """The same section with every tension layer scaled to a total of `As` (> 0)."""
+        factor = As / self.As
+        layers = tuple(SteelLayer(layer.area * factor, layer.depth, layer.role)
+                       if layer.role is Role.TENSION else layer for layer in self.layers)
+        return BeamSection(self.system, self.fc, self.fy, self.es, self.bw, layers, self.dt,
+                           self.h, self.flange, self.spiral)
 
 
-def rectangular_beam(
+def beam_section(
     *,
     units: object,
     fc: object,
     fy: object,
     b: object,
-    d: object,
-    As: object,
+    d: object | None = None,
+    As: object | None = None,
     dt: object | None = None,
     es: object | None = None,
     spiral: object = False,
-) -> RectangularBeam:
-    """A validated `RectangularBeam`; raises `InputError` naming the bad field."""
+    h: object | None = None,
+    bf: object | None = None,
+    hf: object | None = None,
+    asc: object | None = None,
+    dc: object | None = None,
+    layers: Iterable[tuple[object, object]] = (),
+) -> BeamSection:
+    """A validated `BeamSection`; raises `InputError` naming the first bad field.
+
+    `As` at `d` is one tension layer; `layers` adds (area, depth) tension
+    layers; `asc` at `dc` is a compression layer. `bf` and `hf` describe a
+    flange on the compression side; `h` the overall depth.
+    """
     system = unit_system(units)
     stress, length, area = system.stress, system.length, system.area
     max_length = hard_maximum(system, "length")
+
+    def size(field: str, value: object) -> float:
+        return in_range(field, value, length, max_length)
+
     fc_value = in_range("fc", fc, stress, hard_maximum(system, "stress_fc"))
     fy_value = in_range("fy", fy, stress, hard_maximum(system, "stress_fy"))
-    b_value = in_range("b", b, length, max_length)
-    d_value = in_range("d", d, length, max_length)
-    dt_value = d_value if dt is None else in_range("dt", dt, length, max_length)
-    if dt_value < d_value:
-        raise InputError("dt", dt, f"at least d = {d_value:g} {length}",
-                         why="the extreme tension layer cannot be above the steel centroid")
-    As_value = in_range("As", As, area, b_value * d_value)
     es_value = system.default_es if es is None else in_range(
         "es", es, stress, hard_maximum(system, "modulus"))
-    return RectangularBeam(
-        system=system, fc=fc_value, fy=fy_value, b=b_value, d=d_value, As=As_value,
-        dt=dt_value, es=es_value, spiral=flag("spiral", spiral),
-    )
+    bw = size("b", b)
+    h_value = None if h is None else size("h", h)
+    steel = list(_tension_layers(d, As, layers, size, area, bw * max_length))
+    if asc is not None or dc is not None:
+        if asc is None or dc is None:
+            missing = "asc" if asc is None else "dc"
+            raise InputError(missing, None, "a number, since compression steel needs both asc and dc")
+        steel.append(SteelLayer(in_range("asc", asc, area, bw * max_length), size("dc", dc),
+                                Role.COMPRESSION))
+    deepest = max(layer.depth for layer in steel if layer.role is Role.TENSION)
+    dt_value = deepest if dt is None else size("dt", dt)
+    if dt_value < deepest:
+        raise InputError("dt", dt, f"at least {deepest:g} {length}, the depth of the deepest tension layer")
+    if h_value is not None and dt_value > h_value:
+        raise InputError("h", h, f"more than dt = {dt_value:g} {length}",
+                         why="the steel must lie within the section")
+    for layer in steel:
+        if layer.role is Role.COMPRESSION and layer.depth >= dt_value:
+            raise InputError("dc", dc, f"less than dt = {dt_value:g} {length}",
+                             why="compression steel lies above the tension steel")
+    gross_area = bw * (h_value if h_value is not None else dt_value)
+    total_tension = sum(layer.area for layer in steel if layer.role is Role.TENSION)
+    if total_tension >= gross_area:
+        field = "As" if As is not None else "layers"
+        raise InputError(field, total_tension, f"less than the gross area {gross_area:g} {area}")
+    flange = _flange(bf, hf, bw, dt_value, size)
+    return BeamSection(system=system, fc=fc_value, fy=fy_value, es=es_value, bw=bw,
+                       layers=tuple(steel), dt=dt_value, h=h_value, flange=flange,
+                       spiral=flag("spiral", spiral))
+
+
+def rectangular_beam(*, units, fc, fy, b, d, As, dt=None, es=None, spiral=False) -> BeamSection:
+    """A singly reinforced rectangle: one tension layer As at d (issue 2's inputs)."""
+    return beam_section(units=units, fc=fc, fy=fy, b=b, d=d, As=As, dt=dt, es=es, spiral=spiral)
+
+
+def _tension_layers(d, As, layers, size, area_unit, max_area):
+    if (d is None) != (As is None):
+        missing = "d" if d is None else "As"
+        raise InputError(missing, None, "a number, since a tension layer needs both As and d")
+    if d is not None:
+        yield SteelLayer(in_range("As", As, area_unit, max_area), size("d", d))
+    count = 0
+    for count, item in enumerate(layers, start=1):
+        try:
+            layer_area, layer_depth = item
+        except (TypeError, ValueError):
+            raise InputError("layer", item, "an area and a depth, as AREA@DEPTH") from None
+        yield SteelLayer(in_range(f"layer {count} area", layer_area, area_unit, max_area),
+                         size(f"layer {count} depth", layer_depth))
+    if d is None and count == 0:
+        raise InputError("As", None, "a number: give As and d, or at least one layer")
+
+
+def _flange(bf, hf, bw, dt, size) -> Flange | None:
+    if bf is None and hf is None:
+        return None
+    if bf is None or hf is None:
+        missing = "bf" if bf is None else "hf"
+        raise InputError(missing, None, "a number, since a flange needs both bf and hf")
+    width, thickness = size("bf", bf), size("hf", hf)
+    if width < bw:
+        raise InputError("bf", bf, f"at least the web width b = {bw:g}")
+    if thickness >= dt:
+        raise InputError("hf", hf, f"less than dt = {dt:g}", why="the flange must be above the tension steel")
+    return Flange(width=width, thickness=thickness)
