@@ -14,7 +14,7 @@ PHI_TENSION_CONTROLLED = 0.90
 
 # A strain computed at a limit (say, for ρ exactly at ρtc) can land a few
 # ulps short of it; within this much it counts as on the limit.
-_STRAIN_ROUNDING = 1e-15
+STRAIN_ROUNDING = 1e-15
 
 
 class SectionClass(str, Enum):
@@ -27,9 +27,9 @@ class SectionClass(str, Enum):
 
 def section_class(eps_t: float, eps_ty: float) -> SectionClass:
     """Tension-controlled when εt ≥ εty + 0.003, compression-controlled when εt ≤ εty."""
-    if eps_t >= eps_ty + TENSION_CONTROL_MARGIN - _STRAIN_ROUNDING:
+    if eps_t >= eps_ty + TENSION_CONTROL_MARGIN - STRAIN_ROUNDING:
         return SectionClass.TENSION_CONTROLLED
-    if eps_t <= eps_ty + _STRAIN_ROUNDING:
+    if eps_t <= eps_ty + STRAIN_ROUNDING:
         return SectionClass.COMPRESSION_CONTROLLED
     return SectionClass.TRANSITION
 
@@ -41,8 +41,8 @@ def phi_flexure(eps_t: float, eps_ty: float, spiral: bool = False) -> float:
     conforming to 25.7.3: 0.75 to 0.90. Linear in εt across the transition.
     """
     low, span = (0.75, 0.15) if spiral else (0.65, 0.25)
-    if eps_t >= eps_ty + TENSION_CONTROL_MARGIN - _STRAIN_ROUNDING:
+    if eps_t >= eps_ty + TENSION_CONTROL_MARGIN - STRAIN_ROUNDING:
         return PHI_TENSION_CONTROLLED
-    if eps_t <= eps_ty + _STRAIN_ROUNDING:
+    if eps_t <= eps_ty + STRAIN_ROUNDING:
         return low
     return low + span * (eps_t - eps_ty) / TENSION_CONTROL_MARGIN

@@ -17,14 +17,31 @@ def parse_float(field: str, text: str | None) -> float | None:
         raise InputError(field, text, "a number") from None
 
 
+def parse_layer(text: str) -> tuple[float, float]:
+    """`AREA@DEPTH` as (area, depth)."""
+    area, separator, depth = text.partition("@")
+    if not separator:
+        raise InputError("layer", text, "AREA@DEPTH, e.g. 1.58@21.5")
+    return parse_float("layer area", area), parse_float("layer depth", depth)
+
+
 def add_section_flags(parser: argparse.ArgumentParser) -> None:
-    """The flags of issue 2's section contract: units, f'c, fy, b, d, As, dt, Es, spiral, json."""
+    """Every flag that describes a section: units, materials, shape and steel."""
     parser.add_argument("--units", required=True, help="us (psi, in, kip·ft) or si (MPa, mm, kN·m)")
     for flag, meaning in (("--fc", "f'c, concrete strength"), ("--fy", "fy, steel yield strength"),
-                          ("--b", "b, width"), ("--d", "d, depth to the steel centroid"),
-                          ("--as", "As, tension steel area")):
+                          ("--b", "b, width (the web width bw of a T or L)")):
         parser.add_argument(flag, required=True, metavar="F", help=meaning)
-    parser.add_argument("--dt", metavar="F", help="dt, depth to the extreme tension layer (default d)")
+    parser.add_argument("--d", metavar="F", help="d, depth to the tension steel (with --as)")
+    parser.add_argument("--as", metavar="F", help="As, tension steel area at d")
+    parser.add_argument("--layer", action="append", default=[], metavar="AREA@DEPTH",
+                        help="a tension steel layer; repeat for more (then --as/--d may be left out)")
+    parser.add_argument("--asc", metavar="F", help="A's, compression steel area (with --dc)")
+    parser.add_argument("--dc", metavar="F", help="d', depth to the compression steel")
+    parser.add_argument("--h", metavar="F", help="h, overall depth")
+    parser.add_argument("--bf", metavar="F", help="bf, effective flange width (with --hf)")
+    parser.add_argument("--hf", metavar="F", help="hf, flange thickness")
+    parser.add_argument("--dt", metavar="F",
+                        help="dt, depth to the extreme tension layer (default: the deepest layer)")
     parser.add_argument("--es", metavar="F", help="Es (default 29,000,000 psi or 200,000 MPa)")
     parser.add_argument("--spiral", action="store_true",
                         help="spiral transverse reinforcement (φ, Table 21.2.2)")
@@ -37,6 +54,8 @@ def section_inputs(args: argparse.Namespace) -> dict:
         "units": args.units,
         **{name: parse_float(name, getattr(args, attr)) for name, attr in
            (("fc", "fc"), ("fy", "fy"), ("b", "b"), ("d", "d"), ("As", "as"),
-            ("dt", "dt"), ("es", "es"))},
+            ("dt", "dt"), ("es", "es"), ("h", "h"), ("bf", "bf"), ("hf", "hf"),
+            ("asc", "asc"), ("dc", "dc"))},
+        "layers": [parse_layer(text) for text in args.layer],
         "spiral": args.spiral,
     }

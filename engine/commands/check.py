@@ -42,11 +42,20 @@ def summary(result: FlexuralCheck) -> str:
     """A readable, plain-text account of one check."""
     beam, s, lim = result.beam, result.state, result.limits
     u = beam.system
+    shape = "Rectangular section" if beam.flange is None else (
+        f"Flanged section, bf = {beam.flange.width:g} {u.length}, hf = {beam.flange.thickness:g} {u.length}")
+    depth = "" if beam.h is None else f"   h = {beam.h:g} {u.length}"
     lines = [
-        f"Singly reinforced rectangular section, ACI 318-19 ({u.name.upper()} units)",
-        f"  f'c = {beam.fc:g} {u.stress}   fy = {beam.fy:g} {u.stress}   Es = {beam.es:g} {u.stress}",
-        f"  b = {beam.b:g} {u.length}   d = {beam.d:g} {u.length}   dt = {beam.dt:g} {u.length}"
-        f"   As = {beam.As:g} {u.area}",
+        f"{shape}, ACI 318-19 ({u.name.upper()} units)",
+        f"  f'c = {beam.fc:g} {u.stress}   fy = {beam.fy:g} {u.stress}   Es = {beam.es:,.10g} {u.stress}",
+        f"  b = {beam.b:g} {u.length}   d = {beam.d:.4g} {u.length}   dt = {beam.dt:g} {u.length}"
+        f"   As = {beam.As:.4g} {u.area}{depth}",
+    ]
+    if len(s.layers) > 1:
+        lines += [f"  {ls.layer.role.value} layer {ls.layer.area:g} {u.area} at {ls.layer.depth:g} {u.length}:"
+                  f" ε = {ls.strain:+.5f}, fs = {ls.stress:+.5g} {u.stress}"
+                  f"{' (yields)' if ls.yields else ''}" for ls in s.layers]
+    lines += [
         "",
         f"  β1 = {s.beta1:.3f}   εty = {s.eps_ty:.5f}",
         f"  c = {s.c:.4g} {u.length}   a = {s.a:.4g} {u.length}   εt = {s.eps_t:.5f}"
