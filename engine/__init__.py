@@ -6,6 +6,7 @@ Standard library only, no I/O. The same code runs in CPython and in Pyodide.
 from .checks import CAUTION, CodeCheck, FlexuralCheck, check, check_beam
 from .curve import CapacityCurve, capacity_curve, curve_for_beam
 from .errors import InputError, RhoscopeError
+from .flange_width import effective_flange_width
 from .section import BeamSection, Flange, Role, SteelLayer, beam_section, rectangular_beam
 from .strength_reduction import SectionClass
 from .units import SI, US, UnitSystem, convert, unit_system
@@ -13,7 +14,8 @@ from .units import SI, US, UnitSystem, convert, unit_system
 __version__ = "0.1.0"
 
 __all__ = [
-    "CAUTION", "CapacityCurve", "CodeCheck", "FlexuralCheck", "InputError", "BeamSection", "Flange", "Role", "SteelLayer", "beam_section",
-    "RhoscopeError", "SI", "SectionClass", "US", "UnitSystem", "capacity_curve", "check",
-    "check_beam", "convert", "curve_for_beam", "rectangular_beam", "unit_system",
+    "CAUTION", "BeamSection", "CapacityCurve", "CodeCheck", "Flange", "FlexuralCheck", "InputError",
+    "RhoscopeError", "Role", "SI", "SectionClass", "SteelLayer", "US", "UnitSystem", "beam_section",
+    "capacity_curve", "check", "check_beam", "convert", "curve_for_beam",
+    "effective_flange_width", "rectangular_beam", "unit_system",
 ]
