@@ -8,15 +8,20 @@ from pathlib import Path
 
 import pytest
 
-REPO_ROOT = Path(__file__).resolve().parent.parent
-
 
 @pytest.fixture
 def run_cli():
-    """Run `python -m engine ARGS...` from the repository root; returns CompletedProcess."""
+    """Run `python -m engine ARGS...` as a user would; returns the CompletedProcess.
+
+    It runs from the folder holding the `engine` package this test process imported,
+    so the CLI and the in-process API under test are the same code.
+    """
+    import engine
+
+    package_root = Path(engine.__file__).resolve().parent.parent
 
     def run(*args: str) -> subprocess.CompletedProcess:
-        return subprocess.run([sys.executable, "-m", "engine", *args], cwd=REPO_ROOT,
+        return subprocess.run([sys.executable, "-m", "engine", *args], cwd=package_root,
                               capture_output=True, text=True, timeout=60)
 
     return run
