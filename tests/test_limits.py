@@ -54,7 +54,7 @@ def _limits(m):
 
 def test_derivation_reduces_to_textbook_balanced_ratio():
     # independent: for dt = d and yielded steel the sympy result is the familiar
-    # ρ = 0.85 β1 f'c/fy · εcu/(εcu + εt) (e.g. Wight & MacGregor, 7th ed., Eq. 4-xx form).
+    # ρ = 0.85 β1 f'c/fy · εcu/(εcu + εt), the balanced-ratio form found in textbooks (common practice).
     _, _, _, yielded, (eps_t, eps_cu, d, dt, fc, fy, es, beta1) = _derived_rho()
     textbook = sp.Rational(85, 100) * beta1 * fc / fy * eps_cu / (eps_cu + eps_t)
     assert sp.simplify(yielded.subs(dt, d) - textbook) == 0
