@@ -1,0 +1,161 @@
+"""Results as HTML text, built only from engine numbers and escaped strings.
+
+Every string that reaches the markup (engine details and warnings, messages
+quoting a user's or a link's value) passes through `html.escape`; numbers are
+formatted here. Each displayed quantity carries `data-q="<name>"` so tests and
+the latency benchmark can find it.
+"""
+
+from __future__ import annotations
+
+import math
+from html import escape
+
+import engine
+
+from .theme import TEXT_CSS
+
+CSS = TEXT_CSS
+
+# (key in FlexuralCheck.to_dict(), As key, symbol, what it is, clause)
+LIMITS = (
+    ("rho_min", "As_min", "ρmin", "minimum steel", "ACI 318-19 9.6.1.2"),
+    ("rho_tc", "As_tc", "ρtc", "tension-controlled limit, εt = εty + 0.003",
+     "ACI 318-19 Table 21.2.2"),
+    ("rho_max", "As_max", "ρmax", "beam limit, εt = 0.004", "ACI 318-19 9.3.3.1"),
+    ("rho_b", "As_b", "ρb", "balanced, εt = εty", "ACI 318-19 21.2.2"),
+)
+
+CLASS_NAMES = {
+    "tension-controlled": "Tension-controlled",
+    "transition": "Transition",
+    "compression-controlled": "Compression-controlled",
+}
+
+
+def fmt(value: float, digits: int = 4) -> str:
+    """`value` to `digits` significant figures in fixed notation ("277.4", "60,000")."""
+    if value == 0 or not math.isfinite(value):
+        return "0" if value == 0 else escape(str(value))
+    magnitude = math.floor(math.log10(abs(value)))
+    decimals = max(0, digits - 1 - magnitude)
+    return f"{value:,.{decimals}f}"
+
+
+def signed(value: float, digits: int = 4) -> str:
+    """`fmt` with an explicit sign ("+2.157", "−0.3100")."""
+    text = fmt(abs(value), digits)
+    return ("+" if value >= 0 else "−") + text
+
+
+def _q(name: str, text: str) -> str:
+    return f'<span data-q="{name}">{text}</span>'
+
+
+def header_html() -> str:
+    """The title bar and the caution, always at the top of the page."""
+    return (
+        '<div class="rs-head"><span class="rs-title">Rhoscope</span>'
+        '<span class="rs-sub">rectangular beam, flexure, ACI 318-19 · tension steel ratio ρ '
+        'against its code limits</span></div>'
+        f'<div class="rs-caution" data-q="caution"><b>Caution.</b> {escape(engine.CAUTION)}</div>'
+    )
+
+
+def cards_html(result: engine.FlexuralCheck) -> str:
+    """The headline: verdict, φMn, Mu and utilisation, class, εt and φ."""
+    r = result.to_dict()
+    system = engine.unit_system(r["units"])
+    failed = [item for item in r["checks"] if not item["passed"]]
+    if failed:
+        verdict = ("bad", "✘ Does not pass",
+                   "fails " + ", ".join(escape(item["clause"]) for item in failed))
+    else:
+        verdict = ("ok", "✔ Passes", f"all {len(r['checks'])} checks")
+    moment = escape(system.moment)
+    cards = [
+        f'<div class="rs-card rs-verdict {verdict[0]}" data-q="verdict">'
+        f'<div class="k">Verdict</div><div class="v rs-mark">{verdict[1]}</div>'
+        f'<div class="n">{verdict[2]}</div></div>',
+        f'<div class="rs-card"><div class="k">Design strength φMn</div>'
+        f'<div class="v">{_q("phiMn", fmt(r["phiMn"]))}<span class="u">{moment}</span></div>'
+        f'<div class="n">Mn = {_q("Mn_card", fmt(r["Mn"]))} {moment}</div></div>',
+    ]
+    if r.get("Mu") is not None:
+        cards.append(
+            f'<div class="rs-card"><div class="k">Demand Mu · Mu/φMn</div>'
+            f'<div class="v">{_q("utilization", fmt(r["utilization"], 3))}</div>'
+            f'<div class="n">Mu = {_q("Mu", fmt(r["Mu"]))} {moment}</div></div>')
+    else:
+        cards.append('<div class="rs-card"><div class="k">Demand Mu</div>'
+                     '<div class="v">—</div><div class="n">none entered</div></div>')
+    cards.append(
+        f'<div class="rs-card"><div class="k">Section class</div>'
+        f'<div class="v" style="font-size:17px">'
+        f'{_q("section_class", escape(CLASS_NAMES[r["section_class"]]))}</div>'
+        f'<div class="n">εt = {_q("eps_t_card", fmt(r["eps_t"]))} · φ = '
+        f'{_q("phi_card", fmt(r["phi"], 3))}</div></div>')
+    return f'<div class="rs-cards">{"".join(cards)}</div>'
+
+
+def details_html(result: engine.FlexuralCheck) -> str:
+    """The audit trail: section state, ρ against each limit, checks, warnings."""
+    r = result.to_dict()
+    system = engine.unit_system(r["units"])
+    length, area, stress, moment = (escape(system.length), escape(system.area),
+                                    escape(system.stress), escape(system.moment))
+    state_rows = [
+        ("φMn", "phiMn_row", fmt(r["phiMn"]), moment, "design strength"),
+        ("Mn", "Mn", fmt(r["Mn"]), moment, "nominal strength"),
+        ("φ", "phi", fmt(r["phi"], 3), "", "ACI 318-19 Table 21.2.2"),
+        ("εt", "eps_t", fmt(r["eps_t"]), "", "net tensile strain at dt"),
+        ("c", "c", fmt(r["c"]), length, "neutral axis depth"),
+        ("a", "a", fmt(r["a"]), length, "stress block depth, a = β1c (22.2.2.4.1)"),
+        ("β1", "beta1", fmt(r["beta1"], 3), "", "ACI 318-19 Table 22.2.2.4.3"),
+        ("fs", "fs", fmt(r["fs"]), stress, "steel stress"),
+    ]
+    if r.get("As_req") is not None:
+        state_rows.append(("As,req", "As_req", fmt(r["As_req"]), area,
+                           "least As for Mu within 9.3.3.1"))
+    state = "".join(
+        f'<tr><td>{sym}</td><td class="num">{_q(key, value)} {unit}</td>'
+        f'<td class="rs-note">{escape(note)}</td></tr>'
+        for sym, key, value, unit, note in state_rows)
+    limit_rows = []
+    for key, as_key, symbol, what, clause in LIMITS:
+        d_rho, d_as = r["rho"] - r[key], r["As"] - r[as_key]
+        side = "above" if d_rho >= 0 else "below"
+        limit_rows.append(
+            f'<tr><td><b>{symbol}</b><br><span class="rs-note">{escape(what)}; '
+            f'{escape(clause)}</span></td>'
+            f'<td class="num">{_q(key, fmt(r[key]))}</td>'
+            f'<td class="num">{_q(as_key, fmt(r[as_key]))} {area}</td>'
+            f'<td class="num">{_q("margin_" + key, signed(d_rho))}<br>'
+            f'<span class="rs-note">{signed(d_as)} {area} {side}</span></td></tr>')
+    checks = "".join(
+        f'<tr><td class="{"pass" if item["passed"] else "fail"}" data-q="check">'
+        f'{"✔ pass" if item["passed"] else "✘ fail"}</td>'
+        f'<td>{escape(item["clause"])}</td><td>{escape(item["title"])}</td>'
+        f'<td class="rs-note">{escape(item["detail"])}</td></tr>'
+        for item in r["checks"])
+    warnings = "".join(f'<div class="rs-msg rs-warn" data-q="warning">{escape(text)}</div>'
+                       for text in r["warnings"])
+    if not warnings:
+        warnings = '<div class="rs-note">No warnings: the inputs are within the code\'s scope.</div>'
+    return (
+        '<div class="rs-grid">'
+        f'<div><h3>Section state</h3><table>{state}</table></div>'
+        f'<div><h3>ρ = {_q("rho", fmt(r["rho"]))} against the limits</h3>'
+        '<table><tr><th>limit</th><th>ρ at limit</th><th>As at limit</th>'
+        f'<th>ρ − limit</th></tr>{"".join(limit_rows)}</table></div>'
+        '</div>'
+        f'<h3>Code checks</h3><table><tr><th>result</th><th>clause</th><th>requirement</th>'
+        f'<th>detail</th></tr>{checks}</table>'
+        f'<h3>Warnings</h3>{warnings}'
+    )
+
+
+def messages_html(messages: tuple[str, ...] | list[str], css: str = "") -> str:
+    """Plain-text messages as escaped boxes ("" for none)."""
+    return "".join(f'<div class="rs-msg {css}" data-q="message">{escape(text)}</div>'
+                   for text in messages)

@@ -1,0 +1,82 @@
+"""Rhoscope's own colours and the style sheets of its text panes.
+
+The palette is harbour-themed: deep teal ink, bronze, coral for the section
+itself, pale washes for the ρ regions. Every colour that tells states apart
+comes with a second cue (a hatch pattern, a dash pattern, a word or a sign).
+"""
+
+INK = "#1c2b33"
+MUTED = "#56656d"
+TEAL = "#0d6b70"
+BRONZE = "#8a5a1c"
+CORAL = "#c8402f"
+PASS = "#1f7a3a"
+FAIL = "#b3261e"
+PAPER = "#f7f6f2"
+
+# Regions of ρ on the capacity plot: (fill colour, hatch pattern).
+REGION_STYLE = {
+    "below-min": ("#d9d4e6", "."),
+    "tension-controlled": ("#d7ece4", " "),
+    "transition": ("#f3e9c6", "/"),
+    "beyond-beam-limit": ("#f1d2c8", "x"),
+    "compression-controlled": ("#e4c2c2", "+"),
+}
+
+# The four limit ratios: (colour, dash pattern), shared by both plots.
+LIMIT_STYLE = {
+    "rho_min": ("#5b4b8a", "dotted"),
+    "rho_tc": ("#1f7a3a", "dashed"),
+    "rho_max": ("#a4541b", "dashdot"),
+    "rho_b": ("#9c1f2e", "solid"),
+}
+
+FONT = "'Source Sans 3', 'Segoe UI', 'Helvetica Neue', Arial, sans-serif"
+
+# For pn.pane.HTML panes (they live in their own shadow root, so each gets it).
+TEXT_CSS = f"""
+:host {{ font-family: {FONT}; color: {INK}; width: 100%; }}
+.rs-head {{ display: flex; flex-wrap: wrap; align-items: baseline; gap: 4px 18px;
+  padding: 6px 14px; background: {INK}; color: #fff; border-radius: 6px; }}
+.rs-title {{ font-size: 20px; font-weight: 700; letter-spacing: 0.02em; }}
+.rs-sub {{ font-size: 13px; color: #cfe3e4; }}
+.rs-caution {{ margin-top: 6px; padding: 5px 12px; font-size: 13px; line-height: 1.35;
+  border-left: 5px solid {CORAL}; background: #fff4ec; border-radius: 4px; }}
+.rs-caution b {{ color: {CORAL}; }}
+.rs-cards {{ display: flex; flex-wrap: wrap; gap: 8px; }}
+.rs-card {{ flex: 1 1 130px; background: #fff; border: 1px solid #d5dadc; border-radius: 6px;
+  padding: 6px 10px; min-width: 120px; }}
+.rs-card .k {{ font-size: 12px; color: {MUTED}; text-transform: none; }}
+.rs-card .v {{ font-size: 21px; font-weight: 700; }}
+.rs-card .u {{ font-size: 13px; color: {MUTED}; margin-left: 3px; }}
+.rs-card .n {{ font-size: 12px; color: {MUTED}; }}
+.rs-verdict {{ flex: 2 1 220px; border-width: 2px; }}
+.rs-verdict.ok {{ border-color: {PASS}; }}
+.rs-verdict.bad {{ border-color: {FAIL}; background: #fff6f5; }}
+.rs-mark {{ font-weight: 700; }}
+.ok .rs-mark, .pass {{ color: {PASS}; }}
+.bad .rs-mark, .fail {{ color: {FAIL}; }}
+h3 {{ font-size: 15px; margin: 10px 0 4px 0; color: {TEAL}; }}
+table {{ border-collapse: collapse; width: 100%; font-size: 13.5px; }}
+th, td {{ text-align: left; padding: 3px 8px 3px 0; border-bottom: 1px solid #e3e6e7;
+  vertical-align: top; }}
+th {{ font-weight: 600; color: {MUTED}; font-size: 12.5px; }}
+td.num {{ font-variant-numeric: tabular-nums; white-space: nowrap; }}
+.rs-grid {{ display: flex; flex-wrap: wrap; gap: 6px 28px; }}
+.rs-grid > div {{ flex: 1 1 300px; }}
+.rs-msg {{ font-size: 13px; padding: 6px 10px; margin: 4px 0; border-radius: 4px;
+  border-left: 5px solid {FAIL}; background: #fdeceb; white-space: pre-wrap;
+  overflow-wrap: anywhere; }}
+.rs-warn {{ border-left-color: #b8860b; background: #fdf6e3; }}
+.rs-note {{ font-size: 12.5px; color: {MUTED}; }}
+ul {{ margin: 2px 0; padding-left: 18px; }}
+"""
+
+# For the page's own layout elements (inputs column, cards row).
+PANEL_CSS = f"""
+:host {{ font-family: {FONT}; }}
+"""
+
+SIDEBAR_CSS = f"""
+:host {{ background: #fff; border: 1px solid #d5dadc; border-radius: 6px; }}
+"""
