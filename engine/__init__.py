@@ -3,7 +3,11 @@
 Standard library only, no I/O. The same code runs in CPython and in Pyodide.
 """
 
+from .arrangement import Arrangement, arrange
+from .bars import Bar, bar, standard_bars
 from .checks import CAUTION, CodeCheck, FlexuralCheck, check, check_beam
+from .design import BarOption, DesignResult, DesignSection, FailedRule, design_section, detailing_checks
+from .detailing import Exposure, Support
 from .curve import CapacityCurve, capacity_curve, curve_for_beam
 from .errors import InputError, RhoscopeError
 from .flange_width import effective_flange_width
@@ -18,4 +22,6 @@ __all__ = [
     "RhoscopeError", "Role", "SI", "SectionClass", "SteelLayer", "US", "UnitSystem", "beam_section",
     "capacity_curve", "check", "check_beam", "convert", "curve_for_beam",
     "effective_flange_width", "rectangular_beam", "unit_system",
+    "Arrangement", "Bar", "BarOption", "DesignResult", "DesignSection", "Exposure", "FailedRule",
+    "Support", "arrange", "bar", "design_section", "detailing_checks", "standard_bars",
 ]

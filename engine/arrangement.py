@@ -4,8 +4,9 @@ Bars lie in one or two horizontal layers inside the stirrup, the bottom
 layer at clear cover plus stirrup diameter from the tension face. Bars of an
 upper layer sit directly above bars of the bottom layer, a clear distance
 apart (ACI 318-19 25.2.2), so an upper layer never holds more bars than the
-bottom one. The steel is lumped at its centroid: d is measured to the
-centroid of the bars actually placed, dt to the centre of the bottom layer.
+bottom one. d is measured to the centroid of the bars actually placed, dt
+to the centre of the bottom layer; each layer keeps its own depth, so the
+check can give each its own strain (22.2.1.2).
 
 Corner bars are taken to bear on the straight legs of the stirrup; the extra
 room that a stirrup bend of small radius takes from a large corner bar is
@@ -55,6 +56,11 @@ class Arrangement:
     def dt(self) -> float:
         """Depth to the extreme tension layer (the bottom one)."""
         return self.layer_depths[0]
+
+    @property
+    def steel_layers(self) -> tuple[tuple[float, float], ...]:
+        """(area, depth) of each layer, bottom first: the `layers` of `engine.check`."""
+        return tuple((n * self.bar.area, y) for n, y in zip(self.per_layer, self.layer_depths))
 
     @property
     def d(self) -> float:

@@ -17,7 +17,7 @@ from .errors import InputError
 EXIT_BAD_INPUT = 2
 
 # Each module under engine/commands registers its own subcommands.
-COMMAND_MODULES = ("check",)
+COMMAND_MODULES = ("check", "design")
 
 
 class _OneLineParser(argparse.ArgumentParser):

@@ -11,7 +11,7 @@ from enum import Enum
 
 from .bars import Bar
 from .limits import minimum_steel
-from .section import RectangularBeam
+from .section import BeamSection, SteelLayer
 from .units import UnitSystem
 
 # 25.2.1: least clear spacing, a fixed length per system.
@@ -109,8 +109,8 @@ def skin_depth_limit(system: UnitSystem) -> float:
 def minimum_steel_area(system: UnitSystem, fc: float, fy: float, b: float, d: float) -> float:
     """As,min, ACI 318-19 9.6.1.2: the larger of 3√f'c/fy·bw·d and 200/fy·bw·d (US),
     or 0.25√f'c/fy·bw·d and 1.4/fy·bw·d (SI), as `limits.minimum_steel` states it."""
-    beam = RectangularBeam(system=system, fc=fc, fy=fy, b=b, d=d, As=1.0, dt=d,
-                           es=system.default_es)
+    beam = BeamSection(system=system, fc=fc, fy=fy, es=system.default_es, bw=b,
+                       layers=(SteelLayer(1.0, d),), dt=d)
     return minimum_steel(beam).value
 
 
