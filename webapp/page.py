@@ -70,23 +70,23 @@ class BeamCheckPage(pn.viewable.Viewer):
         self._switch_memo: tuple[Inputs, Inputs] | None = None
         self._applying = False
         self.unit_switch = pn.widgets.RadioButtonGroup(
-            name="Units", options=UNIT_OPTIONS, value=self.units, button_type="primary",
-            button_style="outline", sizing_mode="stretch_width")
+            label="Units", options=UNIT_OPTIONS, value=self.units, color="primary",
+            variant="outline", sizing_mode="stretch_width")
         self.unit_switch.param.watch(self._on_unit_switch, "value")
         self.sliders: dict[str, pn.widgets.EditableFloatSlider] = {}
         for name in SLIDER_FIELDS:
             slider = pn.widgets.EditableFloatSlider(
-                name=self._label(name), value=getattr(self, name), start=0.0, end=1.0,
+                label=self._label(name), value=getattr(self, name), start=0.0, end=1.0,
                 step=0.01, sizing_mode="stretch_width", format="0[.][0000]",
                 bar_color="#0d6b70")
             slider.param.watch(self._on_widget_value, "value")
             slider.param.watch(self._on_settled, "value_throttled")
             self.sliders[name] = slider
         self.mu_input = pn.widgets.FloatInput(
-            name=self._label("Mu"), value=self.Mu, start=0.0, step=1.0,
+            label=self._label("Mu"), value=self.Mu, start=0.0, step=1.0,
             placeholder="none", sizing_mode="stretch_width", format="0[.][0000]")
         self.mu_input.param.watch(self._on_mu_widget, "value")
-        self.copy_button = pn.widgets.Button(name="Copy link", button_type="primary",
+        self.copy_button = pn.widgets.Button(label="Copy link", color="primary",
                                              icon="link", sizing_mode="stretch_width")
         self.copy_button.js_on_click(code=COPY_JS)
         self.header = pn.pane.HTML(summary.header_html(), stylesheets=[TEXT_CSS],
@@ -123,8 +123,8 @@ class BeamCheckPage(pn.viewable.Viewer):
             self._set_spans(inputs.units, inputs)
             self.unit_switch.value = inputs.units
             for name in SLIDER_FIELDS:
-                self.sliders[name].name = self._label(name, inputs.units)
-            self.mu_input.name = self._label("Mu", inputs.units)
+                self.sliders[name].label = self._label(name, inputs.units)
+            self.mu_input.label = self._label("Mu", inputs.units)
             self.param.update(**{"units": inputs.units,
                                  **{name: getattr(inputs, name) for name in NUMBER_FIELDS}})
         finally:
