@@ -8,6 +8,7 @@ ACI 318-19 clause, and the warnings, in the units the inputs came in
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 from .flexure import FlexuralState, analyse
@@ -89,7 +90,9 @@ class FlexuralCheck:
         }
         if self.Mu is not None:
             result.update(Mu=self.Mu, utilization=self.utilization, As_req=self.As_req)
-        return result
+        # A limit no steel area can reach is infinite; JSON has no infinity, so null.
+        return {key: None if isinstance(value, float) and math.isinf(value) else value
+                for key, value in result.items()}
 
 
 def check(*, Mu: object | None = None, **section) -> FlexuralCheck:

@@ -56,8 +56,12 @@ def curve_for_beam(beam: BeamSection, points: int = DEFAULT_POINTS) -> CapacityC
     marks = {"rho_min": limits.rho_min, "rho_tc": limits.rho_tc, "rho_max": limits.rho_max,
              "rho_b": limits.rho_b, "rho": result.rho}
     bd = beam.b * beam.d
-    rho_end = max(_PAST_BALANCED * limits.rho_b, 1.1 * result.rho)
-    ratios = sorted({rho_end * i / (points - 1) for i in range(points)} | set(marks.values()))
+    # A limit no steel area can reach (dt far below d) is infinite: the curve
+    # then ends past the largest limit that is finite.
+    finite_limits = [rho for rho in (limits.rho_b, limits.rho_max, limits.rho_tc) if math.isfinite(rho)]
+    rho_end = max(_PAST_BALANCED * max(finite_limits, default=result.rho), 1.1 * result.rho)
+    finite_marks = {rho for rho in marks.values() if math.isfinite(rho)}
+    ratios = sorted({rho_end * i / (points - 1) for i in range(points)} | finite_marks)
     to_quoted = 1.0 / beam.system.moment_to_base
     columns: dict[str, list] = {name: [] for name in
                                 ("rho", "As", "Mn", "phiMn", "phi", "eps_t", "section_class")}

@@ -19,7 +19,7 @@ from enum import Enum
 
 from .errors import InputError
 from .units import UnitSystem, unit_system
-from .validation import flag, hard_maximum, in_range
+from .validation import flag, hard_maximum, in_range, range_text
 
 
 class Role(str, Enum):
@@ -122,9 +122,7 @@ def beam_section(
     system = unit_system(units)
     stress, length, area = system.stress, system.length, system.area
     max_length = hard_maximum(system, "length")
-
-    def size(field: str, value: object) -> float:
-        return in_range(field, value, length, max_length)
+    size = _size_validator(system)
 
     fc_value = in_range("fc", fc, stress, hard_maximum(system, "stress_fc"))
     fy_value = in_range("fy", fy, stress, hard_maximum(system, "stress_fy"))
@@ -132,11 +130,10 @@ def beam_section(
         "es", es, stress, hard_maximum(system, "modulus"))
     bw = size("b", b)
     h_value = None if h is None else size("h", h)
-    steel = list(_tension_layers(d, As, layers, size, area, bw * max_length))
+    steel = list(_tension_layers(d, As, layers, system, bw * max_length))
     if asc is not None or dc is not None:
-        if asc is None or dc is None:
-            missing = "asc" if asc is None else "dc"
-            raise InputError(missing, None, "a number, since compression steel needs both asc and dc")
+        _both_or_neither(("asc", asc, area, bw * max_length), ("dc", dc, length, max_length),
+                         "compression steel")
         steel.append(SteelLayer(in_range("asc", asc, area, bw * max_length), size("dc", dc),
                                 Role.COMPRESSION))
     deepest = max(layer.depth for layer in steel if layer.role is Role.TENSION)
@@ -155,7 +152,7 @@ def beam_section(
     if total_tension >= gross_area:
         field = "As" if As is not None else "layers"
         raise InputError(field, total_tension, f"less than the gross area {gross_area:g} {area}")
-    flange = _flange(bf, hf, bw, dt_value, size)
+    flange = _flange(bf, hf, bw, dt_value, system)
     return BeamSection(system=system, fc=fc_value, fy=fy_value, es=es_value, bw=bw,
                        layers=tuple(steel), dt=dt_value, h=h_value, flange=flange,
                        spiral=flag("spiral", spiral))
@@ -166,11 +163,17 @@ def rectangular_beam(*, units, fc, fy, b, d, As, dt=None, es=None, spiral=False)
     return beam_section(units=units, fc=fc, fy=fy, b=b, d=d, As=As, dt=dt, es=es, spiral=spiral)
 
 
-def _tension_layers(d, As, layers, size, area_unit, max_area):
-    if (d is None) != (As is None):
-        missing = "d" if d is None else "As"
-        raise InputError(missing, None, "a number, since a tension layer needs both As and d")
-    if d is not None:
+def _size_validator(system: UnitSystem):
+    """in_range for a length of `system`: (field, value) -> float."""
+    return lambda field, value: in_range(field, value, system.length,
+                                         hard_maximum(system, "length"))
+
+
+def _tension_layers(d, As, layers, system: UnitSystem, max_area: float):
+    size, area_unit = _size_validator(system), system.area
+    if d is not None or As is not None:
+        _both_or_neither(("As", As, area_unit, max_area),
+                         ("d", d, system.length, hard_maximum(system, "length")), "a tension layer")
         yield SteelLayer(in_range("As", As, area_unit, max_area), size("d", d))
     count = 0
     for count, item in enumerate(layers, start=1):
@@ -181,15 +184,24 @@ def _tension_layers(d, As, layers, size, area_unit, max_area):
         yield SteelLayer(in_range(f"layer {count} area", layer_area, area_unit, max_area),
                          size(f"layer {count} depth", layer_depth))
     if d is None and count == 0:
-        raise InputError("As", None, "a number: give As and d, or at least one layer")
+        raise InputError("As", None, range_text(area_unit, max_area),
+                         why="give As and d, or at least one layer")
 
 
-def _flange(bf, hf, bw, dt, size) -> Flange | None:
+def _both_or_neither(first: tuple, second: tuple, what: str) -> None:
+    """Refuse one of two inputs that only make sense together; each is (field, value, unit, maximum)."""
+    for (field, value, unit, maximum), (partner, *_) in ((first, second), (second, first)):
+        if value is None:
+            raise InputError(field, None, range_text(unit, maximum),
+                             why=f"{what} needs both {first[0]} and {second[0]}; {partner} was given")
+
+
+def _flange(bf, hf, bw, dt, system: UnitSystem) -> Flange | None:
     if bf is None and hf is None:
         return None
-    if bf is None or hf is None:
-        missing = "bf" if bf is None else "hf"
-        raise InputError(missing, None, "a number, since a flange needs both bf and hf")
+    limits = (system.length, hard_maximum(system, "length"))
+    _both_or_neither(("bf", bf, *limits), ("hf", hf, *limits), "a flange")
+    size = _size_validator(system)
     width, thickness = size("bf", bf), size("hf", hf)
     if width < bw:
         raise InputError("bf", bf, f"at least the web width b = {bw:g}")

@@ -29,26 +29,31 @@ def hard_maximum(system: UnitSystem, kind: str) -> float:
     return _HARD_MAXIMA[system.name][kind]
 
 
-def number(field: str, value: object) -> float:
-    """`value` as a finite float, or an `InputError` naming `field`."""
+def number(field: str, value: object, accepted: str = "a finite number") -> float:
+    """`value` as a finite float, or an `InputError` naming `field` and `accepted`."""
     if isinstance(value, bool) or not isinstance(value, Real):
-        raise InputError(field, value, "a number")
+        raise InputError(field, value, accepted, why="not a number")
     result = float(value)
     if not math.isfinite(result):
-        raise InputError(field, value, "a finite number")
+        raise InputError(field, value, accepted, why="not finite")
     return result
+
+
+def range_text(unit: str, maximum: float, *, allow_zero: bool = False) -> str:
+    """How an accepted range reads in messages: "a number in (0, 1,200] in"."""
+    return f"a number in {'[0' if allow_zero else '(0'}, {maximum:,.10g}] {unit}"
 
 
 def in_range(
     field: str, value: object, unit: str, maximum: float, *, allow_zero: bool = False
 ) -> float:
     """`value` as a float in (0, maximum] (or [0, maximum] with `allow_zero`)."""
-    result = number(field, value)
+    accepted = range_text(unit, maximum, allow_zero=allow_zero)
+    result = number(field, value, accepted)
     low_ok = result >= 0 if allow_zero else result > 0
     if not low_ok or result > maximum:
-        bracket = "[0" if allow_zero else "(0"
         too_low = "negative" if allow_zero else "zero or negative"
-        raise InputError(field, value, f"a number in {bracket}, {maximum:,.10g}] {unit}",
+        raise InputError(field, value, accepted,
                          why=too_low if not low_ok else "larger than any real beam")
     return result
 
