@@ -6,12 +6,12 @@ import math
 
 from .flexure import analyse, capacity_point
 from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
-from .materials import BLOCK_STRESS_FACTOR
+from .materials import BLOCK_STRESS_FACTOR, yield_strain
 from .section import BeamSection
-from .strength_reduction import PHI_TENSION_CONTROLLED, SectionClass
+from .strength_reduction import PHI_TENSION_CONTROLLED, TENSION_CONTROL_MARGIN, SectionClass
 
-_GRID = 48  # coarse scan: φMn can fall in the transition zone, so no blind bisection
-_BISECTIONS = 60
+_GRID = 24  # transition-zone scan: there φMn may fall as As rises
+_RELATIVE_TOLERANCE = 1e-12
 
 
 def design_moment(beam: BeamSection, As: float) -> float:
@@ -23,10 +23,10 @@ def design_moment(beam: BeamSection, As: float) -> float:
 def required_steel(beam: BeamSection, Mu_base: float) -> float | None:
     """Least As with φMn ≥ Mu and εt ≥ 0.004 (9.3.3.1), or None if none exists.
 
-    φMn rises with As while the section is tension-controlled but may fall
-    across the transition zone as φ drops (ACI 318-19 Table 21.2.2), so the
-    first crossing is bracketed on a grid up to the 9.3.3.1 limit and then
-    bisected.
+    Up to the tension-controlled limit φ = 0.90 and Mn rises with As, so φMn
+    does too and the root is bracketed from 0. Across the transition zone φ
+    drops (ACI 318-19 Table 21.2.2) and φMn may fall, so there the first
+    crossing is bracketed on a grid up to the 9.3.3.1 limit first.
     """
     if Mu_base <= 0:
         return 0.0
@@ -34,21 +34,46 @@ def required_steel(beam: BeamSection, Mu_base: float) -> float | None:
     if closed_form is not None:
         return closed_form
     As_limit = steel_for_strain(beam, EPS_T_BEAM_MINIMUM)
-    below = 0.0
+    eps_ty = yield_strain(beam.fy, beam.es)
+    As_tc = min(steel_for_strain(beam, eps_ty + TENSION_CONTROL_MARGIN), As_limit)
+    shortfall = lambda As: design_moment(beam, As) - Mu_base  # noqa: E731
+    if As_tc > 0 and shortfall(As_tc) >= 0:
+        return _least_root(shortfall, 0.0, -Mu_base, As_tc, shortfall(As_tc), Mu_base)
+    below, f_below = As_tc, shortfall(As_tc) if As_tc > 0 else -Mu_base
     for step in range(1, _GRID + 1):
-        above = As_limit * step / _GRID
-        if design_moment(beam, above) >= Mu_base:
+        above = As_tc + (As_limit - As_tc) * step / _GRID
+        f_above = shortfall(above)
+        if f_above >= 0:
+            return _least_root(shortfall, below, f_below, above, f_above, Mu_base)
+        below, f_below = above, f_above
+    return None
+
+
+def _least_root(f, low: float, f_low: float, high: float, f_high: float, scale: float) -> float:
+    """A root of the increasing `f` in (low, high] by the Illinois method, from above.
+
+    The answer always has f ≥ 0 (the demand is met), within a relative
+    tolerance of the root in both As and moment.
+    """
+    side = 0
+    for _ in range(200):
+        if high - low <= _RELATIVE_TOLERANCE * high or f_high <= _RELATIVE_TOLERANCE * scale:
             break
-        below = above
-    else:
-        return None
-    for _ in range(_BISECTIONS):
-        middle = 0.5 * (below + above)
-        if design_moment(beam, middle) >= Mu_base:
-            above = middle
+        x = (low * f_high - high * f_low) / (f_high - f_low)
+        if not low < x < high:
+            x = 0.5 * (low + high)
+        f_x = f(x)
+        if f_x >= 0:
+            high, f_high = x, f_x
+            if side == 1:
+                f_low *= 0.5  # the low end has gone stale: halve its weight
+            side = 1
         else:
-            below = middle
-    return above
+            low, f_low = x, f_x
+            if side == -1:
+                f_high *= 0.5
+            side = -1
+    return high
 
 
 def _tension_controlled_steel(beam: BeamSection, Mu_base: float) -> float | None:
