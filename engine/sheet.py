@@ -224,10 +224,9 @@ def _limit_steps(x: _Inputs, r: dict) -> list[SheetStep]:
     ]
     for key, area_key, name, strain_text, strain, clause in (
             ("rho_tc", "As_tc", "ρ<sub>tc</sub>", f"{_EPS_TY} + 0.003", r["eps_ty"] + 0.003,
-             "Table 21.2.2 (tension-controlled limit)"),
+             "Table 21.2.2"),
             ("rho_max", "As_max", "ρ<sub>max</sub>", "0.004", 0.004, "9.3.3.1"),
-            ("rho_b", "As_b", "ρ<sub>b</sub>", _EPS_TY, r["eps_ty"],
-             "21.2.2, Table 21.2.2 (balanced strain)")):
+            ("rho_b", "As_b", "ρ<sub>b</sub>", _EPS_TY, r["eps_ty"], "21.2.2 (balanced)")):
         steps.append(_limit_ratio_step(x, r, key, area_key, name, strain_text, strain, clause))
     return steps
 
@@ -241,20 +240,24 @@ def _limit_ratio_step(x: _Inputs, r: dict, key: str, area_key: str, name: str,
     elastic_stress = x.es * EPS_CU * (x.d - c) / c  # 20.2.2.1 below yield
     # At the balanced limit with dt = d, Es·εs is fy to within rounding.
     yields = elastic_stress >= x.fy * (1 - 1e-12)
-    equation = (f"{name} = 0.85 {_FC} {_B1} c / ({_FS} d), "
-                f"c = {_EPS_CU} {_DT} / ({_EPS_CU} + {_EPS_T}), {_EPS_T} = {strain_text}")
+    equation = (f"{name} = 0.85 {_FC} {_B1} c / ({_FS} d); "
+                f"c = {_EPS_CU} {_DT} / ({_EPS_CU} + {_EPS_T})")
     depth = f"c = {EPS_CU} × {_given(x.dt, L)} / ({EPS_CU} + {_q(strain)}) = {_q(c, L)}"
     if elastic_stress <= 0:
         substituted = f"{depth}; the strain at d is not tensile, so no {_AS} reaches this {_EPS_T}"
     else:
         fs = x.fy if yields else elastic_stress
-        fs_text = (f"{_FS} = {_FY} = {_given(x.fy, S)}" if yields else
+        fs_text = (f"{_FS} = {_FY}" if yields else
                    f"{_FS} = {_ES} {_EPS_CU} (d − c)/c = {_q(fs, S)}")
         substituted = (
             f"{depth}; {fs_text}; 0.85 × {_given(x.fc, S)} × {_q(r['beta1'], digits=3)} × "
             f"{_q(c, L)} / ({_given(fs, S) if yields else _q(fs, S)} × {_given(x.d, L)})")
-    result = f"{_q(r[key])} ({_AS} = {_q(r[area_key], A)})"
-    return SheetStep(key, name, equation, substituted, result, r[key], clause)
+    quantity = f"{name} at {_EPS_T} = {strain_text}"
+    if r[key] is None:  # to_dict writes an unreachable (infinite) limit as None
+        return SheetStep(key, quantity, equation, substituted, "none: no A<sub>s</sub> reaches it",
+                         math.inf, clause)
+    result = f"{_q(r[key])}<br>{_AS} = {_q(r[area_key], A)}"
+    return SheetStep(key, quantity, equation, substituted, result, r[key], clause)
 
 
 _REQUIRED = ("units", "fc", "fy", "b", "d", "As")
@@ -303,45 +306,52 @@ def _checked_svg(svg: str) -> str:
 
 _CSS = """
 * { box-sizing: border-box; }
-body { font: 10pt/1.35 "DejaVu Sans", "Segoe UI", Arial, sans-serif; color: #111; margin: 0; }
+body { font: 9.5pt/1.3 "DejaVu Sans", "Segoe UI", Arial, sans-serif; color: #111; margin: 0; }
 main { max-width: 190mm; margin: 8mm auto; padding: 0 4mm; }
-h1 { font-size: 13pt; margin: 0 0 1mm; }
-h2 { font-size: 10.5pt; margin: 3mm 0 1mm; border-bottom: 0.3mm solid #555; }
+h1 { font-size: 12pt; margin: 0; }
+h1 + p { margin: 0 0 1mm; }
+h2 { font-size: 10pt; margin: 2.5mm 0 0.5mm; border-bottom: 0.3mm solid #555; }
 table { border-collapse: collapse; width: 100%; }
-th, td { text-align: left; vertical-align: top; padding: 0.6mm 1.5mm; border-bottom: 0.1mm solid #ccc; }
+th, td { text-align: left; vertical-align: top; padding: 0.4mm 1.2mm;
+         border-bottom: 0.1mm solid #ccc; }
 th { font-weight: 600; background: #eee; }
-.header td { border: none; padding: 0.3mm 1.5mm; overflow-wrap: anywhere; }
-.header .label, .inputs .label { color: #444; width: 1%; white-space: nowrap; }
-.steps td.result { white-space: nowrap; font-weight: 600; }
-.steps td.clause { white-space: nowrap; color: #333; }
-.steps td.substituted { overflow-wrap: anywhere; }
+td { overflow-wrap: anywhere; }
+.header td { border: none; padding: 0.2mm 1.2mm; }
+.label { color: #444; width: 1%; white-space: nowrap; }
+.steps td.result { font-weight: 600; min-width: 22mm; }
+.steps td.clause { color: #333; }
+.steps td.quantity { width: 14mm; }
 .pass { color: #0a5d1e; font-weight: 700; }
 .fail { color: #a40e0e; font-weight: 700; }
-.verdict { font-weight: 700; margin: 1mm 0; }
-.caution { border: 0.3mm solid #555; padding: 1.5mm; margin-top: 2mm; }
-.link { display: flex; gap: 4mm; align-items: center; }
-.link .url { font-family: "DejaVu Sans Mono", monospace; font-size: 8pt; overflow-wrap: anywhere; }
-.link svg { width: 26mm; height: 26mm; flex: none; }
-section, table, tr, .caution, .link { page-break-inside: avoid; break-inside: avoid; }
+.verdict { font-weight: 700; margin: 0.5mm 0 0; }
+.verdict + p, .warnings, .warnings + p { margin: 0.5mm 0 0; }
+.warnings { padding-left: 5mm; }
+.footer { display: flex; gap: 3mm; align-items: flex-start; margin-top: 2mm; }
+.footer > div { flex: 1; }
+.caution { border: 0.3mm solid #555; padding: 1mm 1.5mm; margin: 0 0 1mm; }
+.link { margin: 0; }
+.url { font-family: "DejaVu Sans Mono", monospace; font-size: 85%; overflow-wrap: anywhere; }
+.footer svg { width: 24mm; height: 24mm; flex: none; }
+section, table, tr, .footer { page-break-inside: avoid; break-inside: avoid; }
 h2 { page-break-after: avoid; break-after: avoid; }
 @page { size: auto; margin: 10mm; }
 @media print {
-  body { font-size: 7.5pt; line-height: 1.25; }
+  body { font-size: 7pt; line-height: 1.2; }
   main { max-width: none; margin: 0; padding: 0; }
-  h1 { font-size: 11pt; }
-  h2 { font-size: 8.5pt; margin: 2mm 0 0.5mm; }
-  th, td { padding: 0.3mm 1mm; }
-  .link svg { width: 22mm; height: 22mm; }
+  h1 { font-size: 10pt; }
+  h2 { font-size: 8pt; margin: 1.5mm 0 0.3mm; }
+  th, td { padding: 0.2mm 0.8mm; }
+  .footer svg { width: 20mm; height: 20mm; }
 }
 """
 
 
 def _header(project: object, mark: object, engineer: object, date: object) -> str:
-    rows = "".join(
-        f'<tr><td class="label">{label}</td><td data-field="{field}">{user_text(value)}</td></tr>'
-        for label, field, value in (("Project", "project", project), ("Beam mark", "mark", mark),
-                                    ("Engineer", "engineer", engineer), ("Date", "date", date)))
-    return f'<table class="header">{rows}</table>'
+    cells = [f'<td class="label">{label}</td><td data-field="{field}">{user_text(value)}</td>'
+             for label, field, value in (("Project", "project", project), ("Beam mark", "mark", mark),
+                                         ("Engineer", "engineer", engineer), ("Date", "date", date))]
+    return (f'<table class="header"><tr>{cells[0]}{cells[1]}</tr>'
+            f'<tr>{cells[2]}{cells[3]}</tr></table>')
 
 
 def _inputs_table(x: _Inputs) -> str:
@@ -356,18 +366,22 @@ def _inputs_table(x: _Inputs) -> str:
         ("Transverse", "spiral", "spiral (25.7.3)" if x.spiral else "other (ties or none)"),
     ]
     rows = []
-    for i in range(0, len(cells), 2):
+    for i in range(0, len(cells), 4):
         rows.append("<tr>" + "".join(
             f'<td class="label">{label}</td><td data-input="{field}">{text}</td>'
-            for label, field, text in cells[i:i + 2]) + "</tr>")
+            for label, field, text in cells[i:i + 4]) + "</tr>")
     return f'<table class="inputs">{"".join(rows)}</table>'
+
+
+def _data_value(value: float) -> str:
+    return format_number(value) if math.isfinite(value) else "inf"
 
 
 def _steps_table(steps: tuple[SheetStep, ...], title: str, keys: set[str]) -> str:
     rows = "".join(
         f'<tr data-step="{s.key}"><td class="quantity">{s.quantity}</td>'
         f'<td class="equation">{s.equation}</td><td class="substituted">{s.substituted}</td>'
-        f'<td class="result" data-key="{s.key}" data-value="{format_number(s.value)}">'
+        f'<td class="result" data-key="{s.key}" data-value="{_data_value(s.value)}">'
         f'{s.result}</td><td class="clause">{html.escape(s.clause)}</td></tr>'
         for s in steps if s.key in keys)
     return (f'<section><h2>{title}</h2><table class="steps"><tr><th>Quantity</th><th>Equation</th>'
@@ -397,12 +411,15 @@ def _checks_section(result: FlexuralCheck) -> str:
             f'</section><section><h2>Warnings</h2>{warnings_html}</section>')
 
 
-def _link_section(link: str, qr_svg: str | None) -> str:
+def _footer(link: str, qr_svg: str | None) -> str:
+    """The caution, and the share link printed and as a QR code."""
+    caution = f'<p class="caution" data-caution>{html.escape(CAUTION)}</p>'
     if not link:
-        return ""
-    qr = _checked_svg(qr_svg) if qr_svg else '<p class="no-qr">(QR code not available)</p>'
-    return (f'<section class="link">{qr}<div><strong>Reopen this check:</strong> '
-            f'<span class="url">{user_text(link, limit=8000)}</span></div></section>')
+        return f'<section class="footer"><div>{caution}</div></section>'
+    qr = _checked_svg(qr_svg) if qr_svg else '<p class="no-qr">(no QR code)</p>'
+    return (f'<section class="footer"><div>{caution}<p class="link"><strong>Reopen this check:'
+            f'</strong> <span class="url">{user_text(link, limit=8000)}</span></p></div>'
+            f'{qr}</section>')
 
 
 def calculation_sheet(
@@ -444,7 +461,6 @@ def calculation_sheet(
         f'{_steps_table(steps, "Strength (ε<sub>cu</sub> = 0.003, 22.2.2.1)", strength_keys)}'
         f'{_steps_table(steps, "Reinforcement limits", limit_keys)}'
         f'{_checks_section(result)}'
-        f'{_link_section(link, qr_svg)}'
-        f'<p class="caution" data-caution>{html.escape(CAUTION)}</p>'
+        f'{_footer(link, qr_svg)}'
         f'</main></body></html>\n'
     )
