@@ -1,0 +1,378 @@
+"""The beam schedule: many checks from one CSV table, one beam a row.
+
+`run_schedule(text)` reads a schedule (CSV text with a header row naming the
+columns), checks every row with `engine.check` and returns a `Schedule`:
+each row's inputs, results or the reason it could not be computed, and a
+summary. `schedule_csv(schedule)` writes it back as CSV: the input columns
+as they came, then the result columns.
+
+Parsing is strict about values and forgiving about layout: column names are
+matched without regard to case or surrounding spaces; unknown columns are
+reported, not fatal; blank lines, a UTF-8 byte-order mark and a trailing
+empty column are fine; tab- and semicolon-separated text (pasted from a
+spreadsheet) is recognised from the header. A bad cell fails only its own
+row, with a message naming the row (its line in the file, header = 1), the
+column and the value. Decimal commas are refused: "3,16" would silently
+mean something else to half the world's spreadsheets.
+
+Results are in each row's own units (kip·ft or kN·m for φMn).
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import math
+import re
+from collections.abc import Callable, Iterable, Mapping
+from dataclasses import dataclass
+
+from .checks import check
+from .errors import InputError
+from .share_link import format_number
+
+REQUIRED_COLUMNS = ("mark", "units", "fc", "fy", "b", "d", "As", "Mu")
+OPTIONAL_COLUMNS = ("dt", "es", "spiral", "h", "bf", "hf", "asc", "dc")
+"""dt, Es, spiral; overall depth h; flange bf and hf; compression steel asc at dc."""
+RESULT_COLUMNS = ("phiMn", "section_class", "eps_t", "utilization", "ok", "message")
+INPUT_COLUMNS = REQUIRED_COLUMNS + OPTIONAL_COLUMNS
+_CANONICAL = {name.lower(): name for name in INPUT_COLUMNS + RESULT_COLUMNS}
+
+_NUMBER_TEXT = re.compile(r"[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?")
+_COMMA_NUMBER = re.compile(r"[+-]?\d*,\d+([.,]\d+)*")
+_TRUE, _FALSE = ("true", "yes", "y", "1"), ("false", "no", "n", "0", "")
+_DELIMITERS = (",", "\t", ";")
+
+
+class ScheduleError(InputError):
+    """A schedule that cannot be read at all: no header, or a required column missing."""
+
+    def __init__(self, message: str) -> None:
+        self.message = message
+        super().__init__("schedule", None, message)
+
+    def __str__(self) -> str:
+        return self.message
+
+
+@dataclass(frozen=True)
+class ScheduleRow:
+    """One beam of the schedule and what became of it.
+
+    `row` is the line in the file (header = 1), as a spreadsheet numbers it;
+    `cells` the row's cells by input column name, as text; `inputs` the
+    `engine.check` keywords (None when a cell was bad). When computed,
+    `phiMn`, `section_class`, `eps_t`, `utilization` and `ok` are the
+    engine's; `message` names failed checks and warnings, or says why the
+    row could not be computed (then `computed` is False).
+    """
+
+    row: int
+    mark: str
+    cells: dict
+    inputs: dict | None
+    raw: tuple[str, ...] = ()  # every cell under the header, as given, for the output
+    computed: bool = False
+    phiMn: float | None = None
+    section_class: str | None = None
+    eps_t: float | None = None
+    utilization: float | None = None
+    ok: bool | None = None
+    message: str = ""
+
+    def to_dict(self) -> dict:
+        """The row as JSON-able data: its cells and results under the CSV's column names."""
+        return {"row": self.row, **self.cells, "computed": self.computed,
+                **{name: getattr(self, name) for name in RESULT_COLUMNS}}
+
+
+@dataclass(frozen=True)
+class ScheduleSummary:
+    """Counts over the schedule and the most heavily used beam."""
+
+    rows: int
+    passed: int
+    failed: int
+    errors: int
+    worst_utilization: float | None
+    worst_mark: str | None
+    worst_row: int | None
+
+    def to_dict(self) -> dict:
+        return dict(vars(self))
+
+    def text(self) -> str:
+        """One line a person reads: counts and the worst utilisation."""
+        line = (f"{self.rows} beams: {self.passed} pass, {self.failed} fail, "
+                f"{self.errors} could not be computed")
+        if self.worst_utilization is not None:
+            line += (f"; worst Mu/φMn = {self.worst_utilization:.3f} "
+                     f"({self.worst_mark}, row {self.worst_row})")
+        return line
+
+
+@dataclass(frozen=True)
+class ParsedSchedule:
+    """A schedule read but not yet checked."""
+
+    columns: tuple[str, ...]  # the header as given, in order
+    unknown_columns: tuple[str, ...]  # reported, not used
+    rows: tuple[ScheduleRow, ...]
+    delimiter: str = ","
+
+
+@dataclass(frozen=True)
+class Schedule:
+    """A checked schedule."""
+
+    columns: tuple[str, ...]
+    unknown_columns: tuple[str, ...]
+    rows: tuple[ScheduleRow, ...]
+    summary: ScheduleSummary
+
+    def notes(self) -> tuple[str, ...]:
+        """Unknown columns and row errors, one line each, for a person to read."""
+        notes = [f"unknown column {name!r} ignored (known: {', '.join(INPUT_COLUMNS)})"
+                 for name in self.unknown_columns]
+        notes += [row.message for row in self.rows if not row.computed]
+        return tuple(notes)
+
+    def to_dict(self) -> dict:
+        return {"columns": list(self.columns), "unknown_columns": list(self.unknown_columns),
+                "rows": [row.to_dict() for row in self.rows], "summary": self.summary.to_dict()}
+
+
+def _delimiter(header_line: str) -> str:
+    """The separator the header uses most: comma, tab (a spreadsheet paste) or semicolon."""
+    return max(_DELIMITERS, key=header_line.count)
+
+
+def parse_schedule(text: str) -> ParsedSchedule:
+    """Read a schedule's CSV text into rows of `engine.check` keywords.
+
+    Raises `ScheduleError` only when nothing can be read: no header, a
+    required column missing, or a column named twice. Everything else is
+    per row (`ScheduleRow.message`) or reported (`unknown_columns`).
+    """
+    if text.startswith("\ufeff"):
+        text = text[1:]
+    lines = text.splitlines(keepends=True)
+    first = next((i for i, line in enumerate(lines) if line.strip(" \t\r\n,;")), None)
+    if first is None:
+        raise ScheduleError("the schedule is empty: expected a header row naming the columns "
+                            f"({', '.join(REQUIRED_COLUMNS)})")
+    delimiter = _delimiter(lines[first])
+    reader = csv.reader(io.StringIO("".join(lines[first:]), newline=""), delimiter=delimiter)
+    try:
+        header = next(reader)
+        fields, columns, unknown = _header_fields(header, first + 1)
+        rows = []
+        named = tuple(i for i, name in enumerate(header) if name.strip())
+        for cells in reader:
+            number = first + reader.line_num
+            if not any(cell.strip() for cell in cells):
+                continue
+            rows.append(_parse_row(number, cells, fields, named, len(header), delimiter))
+    except csv.Error as error:
+        raise ScheduleError(f"row {first + reader.line_num}: not readable as CSV "
+                            f"({error})") from None
+    return ParsedSchedule(columns=tuple(columns), unknown_columns=tuple(unknown),
+                          rows=tuple(rows), delimiter=delimiter)
+
+
+def _header_fields(header: list[str], line: int) -> tuple[dict[int, str], list[str], list[str]]:
+    """Input column name by position; the header as given; the unknown names."""
+    fields: dict[int, str] = {}
+    seen: dict[str, int] = {}
+    unknown = []
+    for position, raw in enumerate(header):
+        name = raw.strip()
+        if not name:
+            continue  # a trailing separator, common in spreadsheet exports
+        canonical = _CANONICAL.get(name.lower())
+        if canonical is None or canonical in RESULT_COLUMNS:
+            # Result columns of an earlier run are recomputed, not read.
+            if canonical is None:
+                unknown.append(name)
+            continue
+        if canonical in seen:
+            raise ScheduleError(f"row {line}: column {canonical!r} is named twice "
+                                f"(columns {seen[canonical] + 1} and {position + 1})")
+        seen[canonical] = position
+        fields[position] = canonical
+    missing = [name for name in REQUIRED_COLUMNS if name not in seen]
+    if missing:
+        raise ScheduleError(
+            f"row {line}: the header lacks the column{'s' if len(missing) > 1 else ''} "
+            f"{', '.join(missing)}; a schedule needs {', '.join(REQUIRED_COLUMNS)} "
+            f"(optional: {', '.join(OPTIONAL_COLUMNS)})")
+    return fields, [name.strip() for name in header], unknown
+
+
+def _parse_row(number: int, cells: list[str], fields: Mapping[int, str],
+               named: tuple[int, ...], width: int, delimiter: str) -> ScheduleRow:
+    by_name = {name: (cells[i].strip() if i < len(cells) else "") for i, name in fields.items()}
+    kept = {name: by_name[name] for name in INPUT_COLUMNS if name in by_name}
+    mark = by_name["mark"]
+    raw = tuple(cells[:width]) + ("",) * (width - len(cells))
+
+    def failed(message: str) -> ScheduleRow:
+        return ScheduleRow(row=number, mark=mark, cells=kept, inputs=None, raw=raw,
+                           message=f"row {number}{f' ({mark})' if mark else ''}: {message}")
+
+    # A value under no column name most often means a decimal comma split a
+    # number in two and shifted the cells after it; nothing in the row is safe.
+    stray = [i for i, cell in enumerate(cells) if cell.strip() and i not in named]
+    if stray:
+        hint = (" (a decimal comma splits a number in two and shifts the cells after it: "
+                "write 3.16, not 3,16)" if delimiter == "," else "")
+        return failed(f"{cells[stray[0]].strip()!r} in column {stray[0] + 1}, which the header "
+                      f"does not name; {len(named)} named columns{hint}")
+    if not mark:
+        return failed("column mark is empty; every beam needs a mark")
+    inputs: dict = {}
+    try:
+        for name, text in by_name.items():
+            if name == "mark":
+                continue
+            if name == "units":
+                if not text:
+                    raise _CellError(name, text, "us or si")
+                inputs["units"] = text
+            elif name == "spiral":
+                inputs["spiral"] = _flag(text)
+            else:
+                value = _number(name, text)
+                if value is not None:
+                    inputs[name] = value
+    except _CellError as error:
+        return failed(str(error))
+    return ScheduleRow(row=number, mark=mark, cells=kept, inputs=inputs, raw=raw)
+
+
+class _CellError(ValueError):
+    def __init__(self, column: str, text: str, expected: str) -> None:
+        super().__init__(f"column {column} = {text!r}: expected {expected}")
+
+
+def _number(column: str, text: str) -> float | None:
+    """A cell's number; None for an empty optional cell."""
+    if not text:
+        if column in REQUIRED_COLUMNS:
+            raise _CellError(column, text, "a number (the cell is empty)")
+        return None
+    if _NUMBER_TEXT.fullmatch(text):
+        return float(text)
+    if _COMMA_NUMBER.fullmatch(text):
+        raise _CellError(column, text, "a number with a decimal point (3.16), no commas: "
+                         "decimal commas and thousands separators are not read")
+    raise _CellError(column, text, "a number such as 4000 or 3.16")
+
+
+def _flag(text: str) -> bool:
+    lowered = text.lower()
+    if lowered not in _TRUE + _FALSE:
+        raise _CellError("spiral", text, "yes or no (true/false, 1/0; empty means no)")
+    return lowered in _TRUE
+
+
+def check_row(row: ScheduleRow) -> ScheduleRow:
+    """`row` checked by `engine.check`, or with the engine's message when it refuses it."""
+    if row.inputs is None or row.computed:
+        return row
+    try:
+        result = check(**row.inputs)
+    except InputError as error:
+        field = error.field
+        if field in row.cells:
+            why = getattr(error, "why", "")
+            text = (f"column {field} = {row.cells[field]!r}: expected {error.accepted}"
+                    + (f" ({why})" if why else ""))
+        else:
+            text = str(error)
+        return ScheduleRow(row=row.row, mark=row.mark, cells=row.cells, inputs=row.inputs,
+                           raw=row.raw, message=f"row {row.row} ({row.mark}): {text}")
+    state = result.state
+    notes = [f"fails {c.clause} {c.title}: {c.detail}" for c in result.checks if not c.passed]
+    notes += [f"warning: {w}" for w in result.warnings]
+    return ScheduleRow(
+        row=row.row, mark=row.mark, cells=row.cells, inputs=row.inputs, raw=row.raw,
+        computed=True,
+        phiMn=result.phiMn, section_class=state.section_class.value, eps_t=state.eps_t,
+        utilization=result.utilization, ok=result.ok, message="; ".join(notes))
+
+
+def summarise(rows: Iterable[ScheduleRow]) -> ScheduleSummary:
+    """How many rows pass, fail and could not be computed; the highest Mu/φMn."""
+    count = passed = failed = errors = 0
+    worst: ScheduleRow | None = None
+    for row in rows:
+        count += 1
+        if not row.computed:
+            errors += 1
+            continue
+        if row.ok:
+            passed += 1
+        else:
+            failed += 1
+        if row.utilization is not None and (worst is None or row.utilization > worst.utilization):
+            worst = row
+    return ScheduleSummary(
+        rows=count, passed=passed, failed=failed, errors=errors,
+        worst_utilization=None if worst is None else worst.utilization,
+        worst_mark=None if worst is None else worst.mark,
+        worst_row=None if worst is None else worst.row)
+
+
+def check_schedule(parsed: ParsedSchedule,
+                   progress: Callable[[int, int], None] | None = None) -> Schedule:
+    """Check every row of `parsed`; `progress(done, total)` is called every 100 rows."""
+    total = len(parsed.rows)
+    rows = []
+    for done, row in enumerate(parsed.rows, 1):
+        rows.append(check_row(row))
+        if progress is not None and (done % 100 == 0 or done == total):
+            progress(done, total)
+    return Schedule(columns=parsed.columns, unknown_columns=parsed.unknown_columns,
+                    rows=tuple(rows), summary=summarise(rows))
+
+
+def run_schedule(text: str) -> Schedule:
+    """Read and check a schedule's CSV text (see `parse_schedule`, `check_schedule`)."""
+    return check_schedule(parse_schedule(text))
+
+
+def _cell(value: object) -> str:
+    if value is None:
+        return ""
+    if isinstance(value, bool):
+        return "true" if value else "false"
+    if isinstance(value, float):
+        return format_number(value) if math.isfinite(value) else str(value)
+    return str(value)
+
+
+def output_columns(schedule: Schedule | ParsedSchedule) -> tuple[int, ...]:
+    """Positions of the input columns carried to the output, unknown ones included.
+
+    Left out: columns without a name (a trailing separator; a row with a value
+    there fails), and result columns of an earlier run, computed afresh.
+    """
+    return tuple(i for i, name in enumerate(schedule.columns)
+                 if name and _CANONICAL.get(name.lower()) not in RESULT_COLUMNS)
+
+
+def schedule_csv(schedule: Schedule) -> str:
+    """The schedule as CSV: its input columns as given, then `RESULT_COLUMNS`.
+
+    Numbers are written in full (the shortest text that reads back as the
+    engine's float), so a spreadsheet rounds them for display, not the file.
+    """
+    positions = output_columns(schedule)
+    out = io.StringIO()
+    writer = csv.writer(out, lineterminator="\n")
+    writer.writerow([schedule.columns[i] for i in positions] + list(RESULT_COLUMNS))
+    for row in schedule.rows:
+        writer.writerow([row.raw[i] for i in positions]
+                        + [_cell(getattr(row, name)) for name in RESULT_COLUMNS])
+    return out.getvalue()
