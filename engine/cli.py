@@ -17,7 +17,7 @@ from .errors import InputError
 EXIT_BAD_INPUT = 2
 
 # Each module under engine/commands registers its own subcommands.
-COMMAND_MODULES = ("check", "design")
+COMMAND_MODULES = ("check", "design", "report", "batch")
 
 
 class _OneLineParser(argparse.ArgumentParser):
@@ -43,5 +43,7 @@ def main(argv: Sequence[str] | None = None) -> int:
     except InputError as error:
         print(f"python -m engine {args.command}: {error}", file=sys.stderr)
         return EXIT_BAD_INPUT
-    print(output)
-    return 0
+    # `run` returns the text, or (text, exit status) when it can partly fail (batch).
+    text, status = output if isinstance(output, tuple) else (output, 0)
+    print(text)
+    return status

@@ -1,0 +1,96 @@
+"""`report`: the calculation sheet of one check, written to an HTML file."""
+
+from __future__ import annotations
+
+import argparse
+import datetime
+import json
+import re
+import sys
+
+from ..checks import check
+from ..errors import InputError
+from ..share_link import share_url
+from ..sheet import SHEET_INPUTS, calculation_sheet
+from .arguments import add_section_flags, parse_float, section_inputs
+
+DEFAULT_LINK_BASE = "http://localhost:8000/"
+"""A placeholder for where the team hosts the app (`make run` serves it here)."""
+
+
+def register(commands) -> None:
+    parser = commands.add_parser(
+        "report", help="write the calculation sheet of one check (HTML, prints on one page)")
+    add_section_flags(parser)
+    parser.add_argument("--mu", metavar="F", help="Mu, factored moment (kip·ft or kN·m)")
+    parser.add_argument("--out", required=True, metavar="FILE", help="the sheet to write (HTML)")
+    parser.add_argument("--project", default="", metavar="TEXT", help="project name")
+    parser.add_argument("--mark", default="", metavar="TEXT", help="beam mark, e.g. B-101")
+    parser.add_argument("--engineer", default="", metavar="TEXT", help="who made the check")
+    parser.add_argument("--date", metavar="YYYY-MM-DD", help="date of the check (default today)")
+    parser.add_argument("--link-base", default=DEFAULT_LINK_BASE, metavar="URL",
+                        help=f"address of the app for the share link (default {DEFAULT_LINK_BASE}, "
+                             "a placeholder for where the app is hosted)")
+    parser.set_defaults(run=run_report)
+
+
+def report_inputs(args: argparse.Namespace) -> dict:
+    """The check's inputs from the flags, without those left at their defaults."""
+    inputs = {**section_inputs(args), "Mu": parse_float("Mu", args.mu)}
+    inputs = {key: value for key, value in inputs.items()
+              if value is not None and value != [] and not (key == "spiral" and value is False)}
+    extra = [key for key in inputs if key not in SHEET_INPUTS]
+    if extra:
+        raise InputError(extra[0], inputs[extra[0]], "no value: the calculation sheet covers a "
+                         "singly reinforced rectangular section (units, fc, fy, b, d, As, dt, es, "
+                         "Mu, spiral); use `check` for this section")
+    return inputs
+
+
+def parse_date(text: str | None) -> str:
+    """`text` as an ISO date YYYY-MM-DD; today when not given."""
+    if text is None:
+        return datetime.date.today().isoformat()
+    try:
+        if not re.fullmatch(r"\d{4}-\d{2}-\d{2}", text):
+            raise ValueError
+        return datetime.date.fromisoformat(text).isoformat()
+    except ValueError:
+        raise InputError("date", text, "a date as YYYY-MM-DD, e.g. 2025-03-14") from None
+
+
+def qr_svg(text: str) -> str | None:
+    """The QR code of `text` as inline SVG, or None when segno is not installed.
+
+    segno is imported here, not at the top, so the engine stays standard
+    library only; it is in the `web` extra.
+    """
+    try:
+        import segno
+    except ImportError:
+        return None
+    return segno.make(text, error="m").svg_inline(scale=1, omitsize=True, dark="#000")
+
+
+def run_report(args: argparse.Namespace) -> str:
+    inputs = report_inputs(args)
+    date = parse_date(args.date)
+    result = check(**inputs)
+    link = share_url(args.link_base, inputs)
+    qr = qr_svg(link)
+    if qr is None:
+        print("python -m engine report: segno is not installed, so the sheet has no QR code "
+              "(pip install segno)", file=sys.stderr)
+    sheet = calculation_sheet(inputs, project=args.project, mark=args.mark,
+                              engineer=args.engineer, date=date, link=link, qr_svg=qr)
+    try:
+        with open(args.out, "w", encoding="utf-8") as file:
+            file.write(sheet)
+    except OSError as error:
+        raise InputError("out", args.out, "a file that can be written",
+                         why=error.strerror or str(error)) from None
+    if args.json:
+        return json.dumps({"out": args.out, "link": link, **result.to_dict()}, ensure_ascii=False)
+    verdict = "all checks pass" if result.ok else "fails " + ", ".join(
+        c.clause for c in result.checks if not c.passed)
+    return f"wrote {args.out}: {verdict}; share link {link}"
