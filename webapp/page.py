@@ -78,13 +78,14 @@ class BeamCheckPage(pn.viewable.Viewer):
             slider = pn.widgets.EditableFloatSlider(
                 label=self._label(name), value=getattr(self, name), start=0.0, end=1.0,
                 step=0.01, sizing_mode="stretch_width", format="0[.][0000]",
-                bar_color="#0d6b70")
+                bar_color="#0d6b70", css_classes=[f"rs-input-{name}"])
             slider.param.watch(self._on_widget_value, "value")
             slider.param.watch(self._on_settled, "value_throttled")
             self.sliders[name] = slider
         self.mu_input = pn.widgets.FloatInput(
             label=self._label("Mu"), value=self.Mu, start=0.0, step=1.0,
-            placeholder="none", sizing_mode="stretch_width", format="0[.][0000]")
+            placeholder="none", sizing_mode="stretch_width", format="0[.][0000]",
+            css_classes=["rs-input-Mu"])
         self.mu_input.param.watch(self._on_mu_widget, "value")
         self.copy_button = pn.widgets.Button(label="Copy link", color="primary",
                                              icon="link", sizing_mode="stretch_width")
@@ -166,9 +167,14 @@ class BeamCheckPage(pn.viewable.Viewer):
     # -- widget events ---------------------------------------------------
 
     def _on_widget_value(self, event) -> None:
+        if self._applying or event.new is None:
+            return
+        # A dragged slider reports its steps with float noise (5.819999999999999);
+        # 12 significant figures drop the noise and keep anything a person types.
+        value = float(f"{float(event.new):.12g}")
         for name, slider in self.sliders.items():
-            if slider is event.obj and event.new is not None:
-                setattr(self, name, float(event.new))
+            if slider is event.obj:
+                setattr(self, name, value)
 
     def _on_mu_widget(self, event) -> None:
         self.Mu = None if event.new is None else float(event.new)

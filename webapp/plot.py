@@ -60,12 +60,13 @@ class CapacityPlot:
 
     def __init__(self) -> None:
         self.curve = ColumnDataSource(data=dict(rho=[], As=[], Mn=[], phiMn=[], phi=[],
-                                                eps_t=[], section_class=[]))
+                                                eps_t=[], section_class=[]), name="curve")
         self.section = ColumnDataSource(data=dict(rho=[], As=[], Mn=[], phiMn=[], phi=[],
                                                   eps_t=[], section_class=[]))
         self.regions = ColumnDataSource(data=dict(left=[], right=[], bottom=[], top=[],
                                                   color=[], hatch=[], name=[]))
-        self.limit_labels = ColumnDataSource(data=dict(x=[], y=[], text=[], color=[]))
+        self.limit_labels = ColumnDataSource(data=dict(x=[], y=[], text=[], color=[]),
+                                             name="limit-labels")
         self.x_range = Range1d(0, 0.05)
         self.y_range = Range1d(0, 1)
         fig = figure(height=390, sizing_mode="stretch_width", x_range=self.x_range,
@@ -89,7 +90,7 @@ class CapacityPlot:
         for key in LIMIT_KEYS:
             color, dash = LIMIT_STYLE[key]
             span = Span(location=0, dimension="height", line_color=color, line_dash=dash,
-                        line_width=2)
+                        line_width=2, name=f"limit-{key}")
             fig.add_layout(span)
             self.spans[key] = span
         fig.add_layout(LabelSet(x="x", y="y", text="text", source=self.limit_labels,
@@ -98,7 +99,7 @@ class CapacityPlot:
                                 background_fill_color="#ffffff",
                                 background_fill_alpha=0.8))
         self.mu_span = Span(location=0, dimension="width", line_color=CORAL,
-                            line_dash=[8, 4], line_width=2, visible=False)
+                            line_dash=[8, 4], line_width=2, visible=False, name="Mu")
         fig.add_layout(self.mu_span)
         self.mu_label = Label(x=0, y=0, text="", text_color=CORAL, text_font_size="12px",
                               x_units="screen", x_offset=8, y_offset=3, visible=False,

@@ -40,7 +40,7 @@ SLIDER_SPANS = {
            "b": (150.0, 1200.0, 5.0), "d": (100.0, 1500.0, 5.0), "As": (60.0, 6500.0, 5.0)},
 }
 
-_MAX_SHOWN = 40  # characters of a rejected value quoted back in a message
+_MAX_SHOWN = 80  # characters of a rejected value quoted back in a message
 _MAX_FIELDS = 64  # query fields read at all; the rest of a huge query is ignored
 # A plain ASCII decimal, as a person types it. float() alone would also take
 # "nan", "inf", "1_000" and non-ASCII digits, none of which a link should carry.
