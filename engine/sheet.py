@@ -208,10 +208,10 @@ def _limit_steps(x: _Inputs, r: dict) -> list[SheetStep]:
     k_sqrt, k_flat = _AS_MIN_TEXT[u.name]
     bd = f"{_given(x.b, L)} × {_given(x.d, L)}"
     steps = [
-        SheetStep("As_min_sqrt_term", f"{_AS},min (a)", f"{k_sqrt} √{_FC} / {_FY} × b d",
+        SheetStep("As_min_sqrt_term", f"{_AS},min (a)", f"{_AS},min(a) = {k_sqrt} √{_FC} / {_FY} × b d",
                   f"{k_sqrt} × √{_given(x.fc)} / {_given(x.fy, S)} × {bd}",
                   _q(r["As_min_sqrt_term"], A), r["As_min_sqrt_term"], "9.6.1.2(a)"),
-        SheetStep("As_min_flat_term", f"{_AS},min (b)", f"{k_flat} / {_FY} × b d",
+        SheetStep("As_min_flat_term", f"{_AS},min (b)", f"{_AS},min(b) = {k_flat} / {_FY} × b d",
                   f"{k_flat} / {_given(x.fy, S)} × {bd}",
                   _q(r["As_min_flat_term"], A), r["As_min_flat_term"], "9.6.1.2(b)"),
         SheetStep("As_min", f"{_AS},min", f"{_AS},min = max((a), (b))",

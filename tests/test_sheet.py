@@ -1,0 +1,352 @@
+"""The calculation sheet: the engine's numbers, every step's equation, a safe self-contained file.
+
+References: each step's value is compared with `engine.check(...).to_dict()`
+(the sheet is the subject, the check the reference) and, for the headline
+results, with hand formulas written here from ACI 318-19 22.2 (yielded steel:
+a = As·fy/(0.85 f'c b), Mn = As·fy·(d − a/2)) and Table 21.2.2.
+"""
+
+from __future__ import annotations
+
+import math
+import os
+import re
+import shutil
+from html.parser import HTMLParser
+
+import pytest
+
+import engine
+from engine.sheet import SHEET_INPUTS, calculation_sheet, sheet_steps, significant
+
+# Harbourline Depot beams (invented), chosen to reach each branch of the sheet.
+CASES = {
+    # Roof beam B-101: yielded, tension-controlled, 9.6.1.2(b) governs.
+    "B-101-us": dict(units="us", fc=4000, fy=60000, b=12, d=21.5, As=3.16, Mu=180),
+    # Level-2 beam B-204: f'c in the sloping row of Table 22.2.2.4.3, transition zone.
+    "B-204-us-transition": dict(units="us", fc=5000, fy=60000, b=12, d=20, As=5.6, Mu=300),
+    # B-201: over-reinforced; steel does not yield, compression-controlled.
+    "B-201-us-no-yield": dict(units="us", fc=4000, fy=60000, b=10, d=17.5, As=6.0, Mu=250),
+    # Girder G-3: SI, two layers (dt > d), spiral, steel below yield, Es not the default.
+    "G-3-si-spiral": dict(units="si", fc=40, fy=420, b=300, d=500, dt=550, As=6000, Mu=180,
+                          spiral=True, es=195_000),
+    # G-5: SI, f'c at or above 55 MPa (β1 = 0.65), no Mu.
+    "G-5-si-high-strength": dict(units="si", fc=60, fy=420, b=300, d=540, As=2000),
+}
+
+STRENGTH_KEYS = ("beta1", "eps_ty", "a", "c", "eps_t", "fs", "phi", "Mn", "phiMn")
+LIMIT_KEYS = ("As_min_sqrt_term", "As_min_flat_term", "As_min", "rho_min", "rho", "rho_tc",
+              "rho_max", "rho_b")
+CLAUSE = re.compile(r"(Table )?\d+(\.\d+)+(\([a-z]\))?")  # ACI 318-19 clause numbering
+
+
+class _Sheet(HTMLParser):
+    """Collects what the tests look at: step rows, data values, fields, text, tags."""
+
+    def __init__(self) -> None:
+        super().__init__(convert_charrefs=True)
+        self.tags: list[tuple[str, dict]] = []
+        self.values: dict[str, str] = {}
+        self.steps: dict[str, list[str]] = {}
+        self.fields: dict[str, str] = {}
+        self.text: list[str] = []
+        self.style = ""
+        self._step: str | None = None
+        self._cell: list[str] | None = None
+        self._field: str | None = None
+        self._in_style = False
+
+    def handle_starttag(self, tag, attrs):
+        attributes = dict(attrs)
+        self.tags.append((tag, attributes))
+        if "data-key" in attributes:
+            self.values[attributes["data-key"]] = attributes["data-value"]
+        if tag == "tr" and "data-step" in attributes:
+            self._step = attributes["data-step"]
+            self.steps[self._step] = []
+        if tag == "td" and self._step is not None:
+            self._cell = []
+        if "data-field" in attributes:
+            self._field = attributes["data-field"]
+            self.fields[self._field] = ""
+        self._in_style = tag == "style"
+
+    def handle_endtag(self, tag):
+        if tag == "td" and self._cell is not None and self._step is not None:
+            self.steps[self._step].append("".join(self._cell).strip())
+            self._cell = None
+        if tag == "tr":
+            self._step = None
+        if tag == "td":
+            self._field = None
+        if tag == "style":
+            self._in_style = False
+
+    def handle_data(self, data):
+        self.text.append(data)
+        if self._cell is not None:
+            self._cell.append(data)
+        if self._field is not None:
+            self.fields[self._field] += data
+        if self._in_style:
+            self.style += data
+
+
+def parse(document: str) -> _Sheet:
+    sheet = _Sheet()
+    sheet.feed(document)
+    sheet.close()
+    return sheet
+
+
+@pytest.fixture(params=list(CASES), ids=list(CASES))
+def case(request):
+    inputs = CASES[request.param]
+    return inputs, engine.check(**inputs).to_dict(), parse(calculation_sheet(
+        inputs, project="Harbourline Depot", mark=request.param, engineer="R. Ortega",
+        date="2025-03-14", link="http://localhost:8000/?units=us"))
+
+
+def test_every_step_value_is_the_engines(case):
+    inputs, result, sheet = case
+    keys = STRENGTH_KEYS + LIMIT_KEYS + (("utilization",) if "Mu" in inputs else ())
+    for key in keys:
+        expected = result[key]
+        shown = sheet.values[key]
+        if expected is None:  # a limit no As reaches (null in to_dict)
+            assert shown == "inf"
+        else:
+            # data-value is the shortest exact text: the same float, bit for bit.
+            assert float(shown).hex() == float(expected).hex(), key
+
+
+def test_every_step_renders_equation_numbers_result_and_clause(case):
+    inputs, result, sheet = case
+    for key in STRENGTH_KEYS + LIMIT_KEYS:
+        quantity, equation, substituted, shown, clause = sheet.steps[key]
+        assert "=" in equation, key
+        assert re.search(r"\d", substituted), key
+        assert CLAUSE.search(clause), (key, clause)
+        if result[key] is not None:
+            # The visible result is the engine's value, rounded for print.
+            assert significant(result[key], 3 if key in ("beta1", "phi") else 4) in shown, key
+
+
+@pytest.mark.parametrize("name", ["B-101-us", "B-204-us-transition", "B-201-us-no-yield",
+                                  "G-3-si-spiral", "G-5-si-high-strength"])
+def test_substituted_numbers_evaluate_to_the_result(name):
+    """Evaluating the printed substitution gives the printed result (to print rounding).
+
+    This is what a reviewer does with a calculator; the tolerance is the
+    4 significant figures the sheet prints.
+    """
+    steps = {s.key: s for s in sheet_steps(CASES[name])}
+    for key in ("eps_ty", "eps_t", "phiMn", "As_min_sqrt_term", "As_min_flat_term", "As_min",
+                "rho_min", "rho", "rho_tc", "rho_max", "rho_b", "a", "utilization"):
+        if key not in steps or not math.isfinite(steps[key].value):
+            continue
+        text = steps[key].substituted.split(";")[-1]
+        if "&lt;" in text or "≤" in text:
+            continue
+        assert _evaluate(text) == pytest.approx(steps[key].value, rel=2e-3), key
+
+
+def _evaluate(text: str) -> float:
+    plain = re.sub(r"<[^>]+>", "", text)
+    plain = re.sub(r"kip·ft|kN·m|N·mm|lb·in|in²|mm²|psi|MPa|\bin\b|\bmm\b", "", plain)
+    plain = (plain.replace("×", "*").replace("−", "-").replace("÷", "/")
+             .replace("√", "sqrt"))
+    plain = re.sub(r"sqrt(\d+(\.\d+)?)", r"sqrt(\1)", plain)
+    assert re.fullmatch(r"[\d\s.*/+\-(),a-z]*", plain), plain
+    return eval(plain, {"__builtins__": {}}, {"sqrt": math.sqrt, "max": max})  # noqa: S307
+
+
+@pytest.mark.parametrize("name, phiMn, phi, klass", [
+    # Hand calculation, ACI 318-19 22.2 with yielded steel: a = 3.16·60000/(0.85·4000·12)
+    # = 4.647 in; Mn = 3.16·60000·(21.5 − 2.324)/12000 = 302.99 kip·ft; c = a/0.85 = 5.467 in,
+    # εt = 0.003(21.5 − 5.467)/5.467 = 0.0088 ≥ 0.00507: φ = 0.90 (Table 21.2.2).
+    pytest.param("B-101-us", 0.9 * 3.16 * 60000 * (21.5 - 3.16 * 60000 / (0.85 * 4000 * 12) / 2)
+                 / 12000, 0.90, "tension-controlled", id="B-101"),
+    # f'c = 5000 psi: β1 = 0.80 (Table 22.2.2.4.3); a = 5.6·60000/(0.85·5000·12) = 6.588 in,
+    # c = 8.235 in, εt = 0.003(20 − 8.235)/8.235 = 0.004286; εty = 60000/29e6 = 0.002069;
+    # φ = 0.65 + 0.25(0.004286 − 0.002069)/0.003 (Table 21.2.2); Mn = 5.6·60000(20 − a/2)/12000.
+    pytest.param("B-204-us-transition",
+                 (0.65 + 0.25 * (0.003 * (20 - 6.588235294117647 / 0.8) / (6.588235294117647 / 0.8)
+                                 - 60000 / 29e6) / 0.003)
+                 * 5.6 * 60000 * (20 - 6.588235294117647 / 2) / 12000,
+                 None, "transition", id="B-204"),
+])
+def test_headline_results_match_hand_calculation(name, phiMn, phi, klass):
+    sheet = parse(calculation_sheet(CASES[name]))
+    assert float(sheet.values["phiMn"]) == pytest.approx(phiMn, rel=1e-9)
+    if phi is not None:
+        assert float(sheet.values["phi"]) == pytest.approx(phi)
+    assert klass in " ".join(sheet.steps["phi"])
+
+
+def test_branches_show_the_equation_that_applies():
+    # Table 22.2.2.4.3 rows; 20.2.2.1 yielded or elastic steel; Table 21.2.2 φ rows.
+    sheets = {name: {s.key: s for s in sheet_steps(inputs)} for name, inputs in CASES.items()}
+    assert "= 0.85 for" in sheets["B-101-us"]["beta1"].equation
+    assert "0.85 − 0.05" in sheets["B-204-us-transition"]["beta1"].equation
+    assert "= 0.65 for" in sheets["G-5-si-high-strength"]["beta1"].equation
+    assert "f<sub>s</sub> = f<sub>y</sub>" in sheets["B-101-us"]["fs"].equation
+    assert "E<sub>s</sub> ε<sub>s</sub>" in sheets["B-201-us-no-yield"]["fs"].equation
+    assert "φ = 0.90" in sheets["B-101-us"]["phi"].equation
+    assert "0.65 + 0.25" in sheets["B-204-us-transition"]["phi"].equation
+    assert "φ = 0.65 when" in sheets["B-201-us-no-yield"]["phi"].equation
+    assert "0.75 + 0.15" in sheets["G-3-si-spiral"]["phi"].equation  # spiral row
+    assert "= 0.25 √" in sheets["G-3-si-spiral"]["As_min_sqrt_term"].equation  # 9.6.1.2(a), SI
+    assert "= 3 √" in sheets["B-101-us"]["As_min_sqrt_term"].equation  # 9.6.1.2(a), US
+
+
+def test_inputs_checks_warnings_and_caution_are_on_the_sheet(case):
+    inputs, result, sheet = case
+    document = calculation_sheet(inputs)
+    text = "".join(parse(document).text)
+    for item in result["checks"]:
+        assert f'data-clause="{item["clause"]}" data-passed="{str(item["passed"]).lower()}"' \
+            in document
+        assert item["detail"] in text
+    for warning in result["warnings"]:
+        assert warning in text
+    assert engine.CAUTION in text
+    assert ("All checks pass." in text) is result["ok"]
+    assert f"{inputs['fc']:g}" in text
+
+
+def test_warning_for_non_default_es_is_shown():
+    # Scope warning: Es differs from ACI 318-19 20.2.2.2's 200,000 MPa.
+    text = "".join(parse(calculation_sheet(CASES["G-3-si-spiral"])).text)
+    assert "195000 MPa" in text and "20.2.2.2" in text
+
+
+class _Resources(HTMLParser):
+    def __init__(self) -> None:
+        super().__init__()
+        self.problems: list[str] = []
+
+    def handle_starttag(self, tag, attrs):
+        if tag in ("script", "link", "img", "iframe", "object", "embed", "base", "form"):
+            self.problems.append(f"<{tag}>")
+        for name, value in attrs:
+            if name in ("src", "href", "xlink:href", "action", "srcset", "poster", "data"):
+                self.problems.append(f"{tag} {name}={value}")
+            if name.startswith("on"):
+                self.problems.append(f"{tag} {name}")
+            if value and "url(" in value:
+                self.problems.append(f"{tag} {name} url()")
+
+
+def _qr():
+    segno = pytest.importorskip("segno", reason="segno (the web extra) makes the QR code")
+    return segno.make("http://localhost:8000/?units=us", error="m").svg_inline(omitsize=True)
+
+
+def test_the_file_needs_nothing_from_outside():
+    document = calculation_sheet(CASES["B-101-us"], link="http://localhost:8000/?units=us",
+                                 qr_svg=_qr())
+    checker = _Resources()
+    checker.feed(document)
+    assert checker.problems == []
+    sheet = parse(document)
+    assert "url(" not in sheet.style and "@import" not in sheet.style
+    assert "<svg" in document  # the QR code is inline
+    # The link is printed as text, not a link the page would follow.
+    assert "http://localhost:8000/?units=us" in "".join(sheet.text)
+
+
+HOSTILE = {
+    "project": '<script>alert("x")</script> & </td></table><img src=x onerror=alert(1)>',
+    "mark": "B-101\" onmouseover=\"alert(1)' <!-- -->",
+    "engineer": "Zoë Ångström-Ng 王 🙂 ‹›",
+    "date": "2025-03-14 " + "long " * 1000,
+}
+
+
+def test_hostile_header_text_is_shown_escaped():
+    document = calculation_sheet(CASES["B-101-us"], link='http://x/?a="<b>"', **HOSTILE)
+    checker = _Resources()
+    checker.feed(document)
+    assert checker.problems == []
+    assert "<script>" not in document and "<img" not in document
+    sheet = parse(document)
+    assert sheet.fields["project"] == HOSTILE["project"]
+    assert sheet.fields["mark"] == HOSTILE["mark"]
+    assert sheet.fields["engineer"] == HOSTILE["engineer"]
+    # Very long text is cut (with an ellipsis) rather than pushing the sheet off its page.
+    assert sheet.fields["date"].startswith("2025-03-14 long")
+    assert len(sheet.fields["date"]) <= 2001
+    assert 'http://x/?a="<b>"' in "".join(sheet.text)
+
+
+def test_control_characters_are_dropped_from_user_text():
+    sheet = parse(calculation_sheet(CASES["B-101-us"], project="Harbour\x00line\x1b Depot"))
+    assert sheet.fields["project"] == "Harbourline Depot"
+
+
+@pytest.mark.parametrize("svg", [
+    '<svg><script>alert(1)</script></svg>',
+    '<svg><a href="https://example.org"><rect/></a></svg>',
+    '<svg onload="alert(1)"></svg>',
+    '<svg><rect style="fill:url(https://example.org/x)"/></svg>',
+    '<p>not svg</p>',
+], ids=["script", "href", "onload", "url", "not-svg"])
+def test_qr_svg_with_scripts_or_links_is_refused(svg):
+    with pytest.raises(engine.InputError, match="qr_svg"):
+        calculation_sheet(CASES["B-101-us"], link="http://localhost:8000/", qr_svg=svg)
+
+
+def test_bad_inputs_raise_the_engines_error():
+    with pytest.raises(engine.InputError, match="^fc:"):
+        calculation_sheet({**CASES["B-101-us"], "fc": -1})
+    with pytest.raises(engine.InputError, match="^As:"):
+        calculation_sheet({k: v for k, v in CASES["B-101-us"].items() if k != "As"})
+
+
+def test_sections_the_sheet_does_not_cover_are_refused_not_misreported():
+    # A T-beam needs other equations (flange, 22.2.2.4.1 over the compression zone shape).
+    with pytest.raises(engine.InputError, match="^bf:"):
+        calculation_sheet({**CASES["B-101-us"], "bf": 40, "hf": 4})
+    assert "bf" not in SHEET_INPUTS
+
+
+def test_print_css_is_for_one_page():
+    style = parse(calculation_sheet(CASES["B-101-us"])).style
+    assert re.search(r"@page\s*{[^}]*size:\s*auto", style)
+    assert "@media print" in style
+    assert "break-inside: avoid" in style
+
+
+def _chromium() -> str | None:
+    return shutil.which("chromium") or shutil.which("chromium-browser")
+
+
+@pytest.mark.parametrize("paper", ["Letter", "A4"])
+def test_worst_case_sheet_prints_on_one_page(paper, tmp_path):
+    """Print through Chromium (the print path a browser user takes) and count the pages."""
+    sync_api = pytest.importorskip("playwright.sync_api", reason="needs Playwright")
+    browser_path = _chromium()
+    if browser_path is None:
+        message = "needs Chromium (apt-get install chromium) to print the sheet"
+        if os.environ.get("CI") == "true":
+            pytest.fail(message)
+        pytest.skip(message)
+    inputs = dict(units="us", fc=2000, fy=120000, b=10, d=18, dt=20.5, As=9, es=28_000_000,
+                  Mu=900)  # every warning, steel below yield: the longest sheet
+    document = calculation_sheet(
+        inputs, project="Harbourline Depot, level 2 roof framing, stage 3 review " * 3,
+        mark="B-204", engineer="R. Ortega", date="2025-03-14",
+        link="http://localhost:8000/?" + "x=1&" * 60, qr_svg=_qr())
+    path = tmp_path / "sheet.html"
+    path.write_text(document, encoding="utf-8")
+    with sync_api.sync_playwright() as playwright:
+        browser = playwright.chromium.launch(executable_path=browser_path, args=["--no-sandbox"])
+        try:
+            page = browser.new_page()
+            page.goto(path.as_uri())
+            pdf = page.pdf(format=paper)
+        finally:
+            browser.close()
+    pages = re.findall(rb"/Type\s*/Page\b(?!s)", pdf)
+    assert len(pages) == 1
