@@ -65,7 +65,8 @@ class Arrangement:
     @property
     def d(self) -> float:
         """Depth to the centroid of the bars placed."""
-        return sum(n * y for n, y in zip(self.per_layer, self.layer_depths)) / self.count
+        centroid = sum(n * y for n, y in zip(self.per_layer, self.layer_depths)) / self.count
+        return min(centroid, self.dt)  # never an ulp below dt: `check` requires d ≤ dt
 
 
 def side_cover(cover: float, stirrup: Bar) -> float:

@@ -1,0 +1,344 @@
+"""Design from Mu: required steel, bar options, and what the list promises.
+
+Reference computations are written here, separately from the engine: the
+textbook closed form for tension-controlled steel (solved with sympy), the
+εt = 0.004 limit worked by strain compatibility by hand, and an independent
+brute-force enumeration of bar arrangements for the property tests.
+"""
+
+from __future__ import annotations
+
+import math
+
+import pytest
+import sympy
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+
+import engine
+from engine import InputError
+
+# ASTM A615/A615M Table 1 (nominal diameter, area), copied here so the tests
+# do not read the engine's table.
+US_BARS = {"#3": (0.375, 0.11), "#4": (0.5, 0.20), "#5": (0.625, 0.31), "#6": (0.75, 0.44),
+           "#7": (0.875, 0.60), "#8": (1.0, 0.79), "#9": (1.128, 1.00), "#10": (1.27, 1.27),
+           "#11": (1.41, 1.56), "#14": (1.693, 2.25), "#18": (2.257, 4.00)}
+SI_BARS = {"10": (9.5, 71), "13": (12.7, 129), "16": (15.9, 199), "19": (19.1, 284),
+           "22": (22.2, 387), "25": (25.4, 510), "29": (28.7, 645), "32": (32.3, 819),
+           "36": (35.8, 1006), "43": (43.0, 1452), "57": (57.3, 2581)}
+
+
+def textbook_As(Mu_kipft, fc, fy, b, d):
+    """Least root of φ As fy (d − As fy / (1.7 f'c b)) = Mu with φ = 0.9 (lb, in)."""
+    As = sympy.symbols("As", positive=True)
+    roots = sympy.solve(sympy.Eq(0.9 * As * fy * (d - As * fy / (1.7 * fc * b)), Mu_kipft * 12_000), As)
+    return float(min(roots))
+
+
+def test_hand_example_us_12x24_grade_60():
+    # Textbook procedure (Rn = Mu/(φ b d²), then ρ), worked by hand: f'c 4000 psi, fy
+    # 60,000 psi, b 12 in, h 24 in, 1.5 in cover, #3 stirrups, Mu 180 kip·ft.
+    # With #8 bars d = 24 − 1.5 − 0.375 − 0.5 = 21.625 in; Rn = 2,160,000/(0.9·12·21.625²)
+    # = 427.7 psi; ρ = 0.85·4000/60000·(1 − √(1 − 2·427.7/3400)) = 0.007645;
+    # As = 0.007645·12·21.625 = 1.984 in² → 3 #8 (2.37 in²).
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=180)
+    assert result.feasible
+    three_8 = next(o for o in result.options if o.bar.designation == "#8")
+    assert (three_8.count, three_8.layers, three_8.ok) == (3, 1, True)
+    assert three_8.d == pytest.approx(21.625)
+    assert three_8.As_req == pytest.approx(textbook_As(180, 4000, 60000, 12, 21.625), rel=1e-6)
+    assert three_8.As_req == pytest.approx(1.984, abs=0.002)
+    # a = 2.37·60000/(0.85·4000·12) = 3.485 in; φMn = 0.9·2.37·60·(21.625 − 1.743)/12 = 212.1
+    a = 2.37 * 60000 / (0.85 * 4000 * 12)
+    assert three_8.phiMn == pytest.approx(0.9 * 2.37 * 60 * (21.625 - a / 2) / 12, rel=1e-9)
+    # εt = 0.003 (d − c)/c with c = a/0.85 = 4.100 in: 0.01282, tension-controlled.
+    assert three_8.eps_t == pytest.approx(0.003 * (21.625 - a / 0.85) / (a / 0.85), rel=1e-9)
+    # clear spacing (12 − 3.75 − 3)/2 = 2.625 in.
+    assert three_8.clear_spacing == pytest.approx(2.625)
+    # Best first: least steel. 2 #9 (2.00 in²) at d = 21.561 in needs As,req = 1.990 in².
+    assert result.best.label == "2 #9"
+    assert result.As_req == pytest.approx(textbook_As(180, 4000, 60000, 12, 21.561), rel=1e-6)
+
+
+def test_hand_example_si_300x600():
+    # Worked by hand: f'c 28 MPa, fy 420 MPa, b 300, h 600 mm, 40 mm cover, No. 10 stirrups,
+    # Mu 250 kN·m. No. 25 bars: d = 600 − 40 − 9.5 − 12.7 = 537.8 mm; tension-controlled
+    # closed form 0.9 As fy (d − As fy/(1.7 f'c b)) = 250e6 N·mm.
+    As = sympy.symbols("As", positive=True)
+    roots = sympy.solve(sympy.Eq(0.9 * As * 420 * (537.8 - As * 420 / (1.7 * 28 * 300)), 250e6), As)
+    As_hand = float(min(roots))
+    # By hand: Rn = 250e6/(0.9·300·537.8²) = 3.2014 MPa; ρ = 0.85·28/420·(1 − √(1 − 2·3.2014/23.8))
+    # = 0.008218; As = 0.008218·300·537.8 = 1,326 mm² → 3 No. 25 (1,530 mm²).
+    result = engine.design_section(units="si", fc=28, fy=420, b=300, h=600, Mu=250)
+    option = next(o for o in result.options if o.bar.designation == "25")
+    assert (option.count, option.ok) == (3, True)
+    assert option.As_req == pytest.approx(As_hand, rel=1e-6)
+    assert As_hand == pytest.approx(1326, abs=1.0)
+
+
+def eps_t_limit_moment(fc, fy, b, d, beta1, es=29e6):
+    """φMn at εt = 0.004 by hand: c = 3/7 d, a = β1 c, As = 0.85 f'c a b / fy (yielded)."""
+    c = 0.003 * d / 0.007
+    a = beta1 * c
+    As = 0.85 * fc * a * b / fy
+    phi = 0.65 + 0.25 * (0.004 - fy / es) / 0.003
+    return phi * As * fy * (d - a / 2)
+
+
+def test_no_singly_reinforced_section_reaches_the_demand():
+    # 10 × 16 in, f'c 4000, Grade 60, Mu 400 kip·ft. Deepest d (one layer of #3):
+    # 16 − 1.5 − 0.375 − 0.1875 = 13.9375 in. At εt = 0.004 (c = 5.973 in, a = 5.077 in,
+    # As = 2.877 in², φ = 0.8108) φMn = 133.0 kip·ft; at the tension-controlled limit it is
+    # lower for Grade 60 (0.2816 vs 0.2842 of 0.85 f'c β1 b d², by hand), so 133 governs.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=10, h=16, Mu=400)
+    d = 16 - 1.5 - 0.375 - 0.375 / 2
+    assert result.d_deepest == pytest.approx(d)
+    hand = eps_t_limit_moment(4000, 60000, 10, d, 0.85) / 12_000
+    assert result.phiMn_max == pytest.approx(hand, rel=1e-6)
+    assert not result.feasible
+    assert result.best is None
+    assert result.As_req is None
+    assert "No singly reinforced" in result.verdict and "0.004" in result.verdict
+    ways = " ".join(result.remedies)
+    for way in ("deeper", "wider", "stronger concrete", "compression reinforcement"):
+        assert way in ways
+    # The deeper section suggested carries Mu: φMn,max ∝ d² (fixed εt, fixed b).
+    d_needed = d * math.sqrt(400 / hand)
+    assert eps_t_limit_moment(4000, 60000, 10, d_needed, 0.85) / 12_000 == pytest.approx(400)
+
+
+def test_high_strength_bars_peak_at_the_tension_controlled_limit():
+    # fy 100,000 psi: εty = 0.00345; by hand 0.85 f'c β1 b d² × 0.2472 at εt = εty + 0.003
+    # beats 0.2439 at εt = 0.004 (φ = 0.696), so the largest φMn within 9.3.3.1 is the former.
+    result = engine.design_section(units="us", fc=4000, fy=100000, b=10, h=16, Mu=400)
+    d = result.d_deepest
+    eps = 100000 / 29e6 + 0.003
+    c = 0.003 * d / (0.003 + eps)
+    a = 0.85 * c
+    As = 0.85 * 4000 * a * 10 / 100000
+    assert result.phiMn_max == pytest.approx(0.9 * As * 100000 * (d - a / 2) / 12_000, rel=1e-6)
+
+
+def test_options_are_best_first_and_failing_ones_carry_their_rule():
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=180)
+    ok = [o for o in result.options if o.ok]
+    failing = [o for o in result.options if not o.ok]
+    assert result.options[:len(ok)] == tuple(ok)
+    assert [(o.As, o.count) for o in ok] == sorted((o.As, o.count) for o in ok)
+    assert failing and all(o.failed_rules for o in failing)
+    # 19 #3 carry Mu but do not fit (10 + 9 in 12 in: (8.25 − 3.75)/9 = 0.5 in < 1 in).
+    threes = next(o for o in failing if o.bar.designation == "#3")
+    assert [r.clause for r in threes.failed_rules] == ["25.2.1"]
+    assert threes.clear_spacing == pytest.approx(0.5)
+
+
+def test_user_cover_below_the_table_fails_every_option():
+    # Table 20.5.1.3.1: 1.5 in for beams not exposed; 1 in is too little.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=180, cover=1.0)
+    assert result.best is None
+    assert all("20.5.1.3.1" in [r.clause for r in o.failed_rules] for o in result.options)
+
+
+def test_exposed_beam_needs_2_in_on_bars_6_and_larger():
+    # Table 20.5.1.3.1, exposed: #6–#18 need 2 in; with 1.5 in to a #3 stirrup they have 1.875.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=16, h=24, Mu=150,
+                                   exposure="exposed")
+    for option in result.options:
+        breaks_cover = "20.5.1.3.1" in [r.clause for r in option.failed_rules]
+        assert breaks_cover == (option.bar.number >= 6), option.label
+
+
+def test_layer_gap_below_25_2_2_fails_two_layer_options():
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=10, h=24, Mu=250,
+                                   layer_gap=0.75, bars=["#5", "#6"])
+    two = [o for o in result.options if o.layers == 2]
+    assert two and all("25.2.2" in [r.clause for r in o.failed_rules] for o in two)
+
+
+def test_crack_control_adds_bars_in_a_wide_beam():
+    # b 36 in: 2 #11 would be 36 − 3.75 − 1.41 = 30.8 in apart > 10.31 in (Table 24.3.2 with
+    # cc = 1.875 in, fs = 40,000 psi); at least 4 bars are needed (3 spaces ≤ 10.31 in).
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=36, h=24, Mu=200)
+    for option in result.options:
+        if option.ok:
+            assert option.bar_spacing <= 15 - 2.5 * 1.875 + 1e-9
+            assert option.count >= 4
+
+
+def test_one_layer_only():
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=300, layers=1)
+    assert all(o.layers == 1 for o in result.options)
+
+
+def test_detailing_of_a_deep_beam_with_a_span():
+    # h 40 in > 36 in: skin reinforcement (9.7.2.3). Simple span 60 ft = 720 in: h,min =
+    # 720/16 = 45 in > 40 in (Table 9.3.1.1).
+    result = engine.design_section(units="us", fc=5000, fy=60000, b=16, h=40, Mu=500,
+                                   span=720, support="simple")
+    checks = {c.clause: c for c in result.detailing(result.best)}
+    assert not checks["9.7.2.3"].passed and "skin" in checks["9.7.2.3"].detail
+    assert not checks["Table 9.3.1.1"].passed and "45" in checks["Table 9.3.1.1"].detail
+    for clause in ("9.6.1.2", "9.3.3.1", "9.5.1.1", "25.2.1", "20.5.1.3.1", "24.3.2"):
+        assert checks[clause].passed, clause
+
+
+def test_small_moment_is_governed_by_minimum_steel_or_its_alternative():
+    # Mu 20 kip·ft in 12 × 24: As,req ≈ 0.21 in², As,min = 200/60000 × 12 × d ≈ 0.86 in².
+    # 9.6.1.3 lets 4/3 × As,req ≈ 0.28 in² do; every ok option has at least that.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=20)
+    for option in (o for o in result.options if o.ok):
+        assert option.As >= 4 / 3 * option.As_req - 1e-12
+        assert option.As >= min(option.As_min, 4 / 3 * option.As_req) - 1e-12
+
+
+@pytest.mark.parametrize("field, kwargs, pattern", [
+    ("units", {"units": "imperial"}, "units"),
+    ("fc", {"fc": -1}, "fc"),
+    ("Mu", {"Mu": 0}, "Mu"),
+    ("Mu", {"Mu": float("nan")}, "Mu"),
+    ("stirrup", {"stirrup": "#8"}, "stirrup"),
+    ("layers", {"layers": 3}, "layers"),
+    ("layers", {"layers": True}, "layers"),
+    ("exposure", {"exposure": "wet"}, "exposure"),
+    ("support", {"span": 240}, "support"),
+    ("span", {"support": "simple"}, "span"),
+    ("support", {"span": 240, "support": "fixed"}, "support"),
+    ("bars", {"bars": ["#7", "#12"]}, "bars"),
+    ("bars", {"bars": []}, "bars"),
+    ("fs", {"fs": 70000}, "fs"),
+    ("b", {"b": 3.5}, "b"),
+    ("h", {"h": 6}, "h"),
+], ids=lambda v: v if isinstance(v, str) else None)
+def test_bad_input_names_the_field(field, kwargs, pattern):
+    inputs = dict(units="us", fc=4000, fy=60000, b=12, h=24, Mu=180) | kwargs
+    with pytest.raises(InputError, match=rf"^{pattern}: ") as caught:
+        engine.design_section(**inputs)
+    assert caught.value.field == field
+
+
+def test_to_dict_is_plain_json():
+    import json
+    result = engine.design_section(units="si", fc=30, fy=420, b=300, h=650, Mu=300)
+    data = json.loads(json.dumps(result.to_dict(), allow_nan=False))
+    assert data["best"] == 0 and data["options"][0]["ok"]
+    assert data["caution"] == engine.CAUTION
+
+
+def test_design_speed(benchmark):
+    # Measured, not timed: `pytest --benchmark-enable` reports it (target well under 50 ms).
+    result = benchmark(engine.design_section, units="us", fc=4000, fy=60000, b=14, h=28, Mu=320)
+    assert result.best is not None
+
+
+# --- properties -------------------------------------------------------------------------
+
+def _fit(b, cover, ds, db, s_min, n):
+    """Independent 25.2.1 fit: n bars and n − 1 clear gaps inside the stirrup."""
+    return 2 * (cover + ds) + n * db + (n - 1) * s_min <= b + 1e-9
+
+
+def _layouts(n, b, cover, ds, db, s_min, max_layers):
+    """Every placement the design may use: one layer if it fits, else two (upper ≤ lower, ≥ 2)."""
+    if n < 2:
+        return []
+    if _fit(b, cover, ds, db, s_min, n):
+        return [(n,)]
+    if max_layers == 1:
+        return []
+    return [(n1, n - n1) for n1 in range(2, n - 1) if n - n1 <= n1 and _fit(b, cover, ds, db, s_min, n1)]
+
+
+def _works(inputs, layout, db, area, ds):
+    """Every rule the design applies, computed here: strength, εt, As,min via engine.check;
+    spacing (25.2.1), crack control (Table 24.3.2), cover (Table 20.5.1.3.1, not exposed)."""
+    units, fc, fy, b, h, Mu, cover, agg, gap = (inputs[k] for k in
+                                                ("units", "fc", "fy", "b", "h", "Mu", "cover", "agg", "layer_gap"))
+    us = units == "us"
+    s_min = max(1.0 if us else 25.0, db, 4 / 3 * agg)
+    if not _fit(b, cover, ds, db, s_min, layout[0]):
+        return False, None
+    y0 = h - cover - ds - db / 2
+    layers = [(n * area, y0 - i * (db + gap)) for i, n in enumerate(layout)]
+    r = engine.check(units=units, fc=fc, fy=fy, b=b, layers=layers, h=h, Mu=Mu)
+    cc = cover + ds
+    fs = 2 / 3 * fy
+    s_max = min(15 * 40000 / fs - 2.5 * cc, 12 * 40000 / fs) if us else \
+        min(380 * 280 / fs - 2.5 * cc, 300 * 280 / fs)
+    spacing = (b - 2 * cc - layout[0] * db) / (layout[0] - 1) + db
+    return r.ok and spacing <= s_max * (1 + 1e-9) and cover >= (1.5 if us else 40.0), r
+
+
+design_inputs = st.fixed_dictionaries({
+    "units": st.just("us"),
+    "fc": st.sampled_from([3000, 4000, 5000, 6000, 8000]),
+    "fy": st.sampled_from([40000, 60000, 80000, 100000]),
+    "b": st.floats(8, 36),
+    "h": st.floats(12, 48),
+    "Mu": st.floats(5, 1500),
+    "cover": st.sampled_from([1.5, 2.0]),
+    "stirrup": st.sampled_from(["#3", "#4"]),
+    "agg": st.sampled_from([0.375, 0.75, 1.0, 1.5]),
+    "layers": st.sampled_from([1, 2]),
+    "layer_gap": st.sampled_from([1.0, 1.25]),
+})
+STIRRUP_DB = {"#3": 0.375, "#4": 0.5}
+
+
+@settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(design_inputs)
+def test_every_ok_option_really_works_and_fits(inputs):
+    result = engine.design_section(**inputs)
+    ds = STIRRUP_DB[inputs["stirrup"]]
+    for option in result.options:
+        db, area = US_BARS[option.bar.designation]
+        if not option.ok:
+            assert option.failed_rules
+            continue
+        # Through engine.check, with each layer at its depth and with the lumped As, d, dt.
+        layers = [(area * n, depth) for n, depth in
+                  zip(option.per_layer, option.arrangement.layer_depths)]
+        r = engine.check(units="us", fc=inputs["fc"], fy=inputs["fy"], b=inputs["b"],
+                         layers=layers, h=inputs["h"], Mu=inputs["Mu"])
+        assert r.phiMn >= inputs["Mu"] and r.state.eps_t >= 0.004 and r.ok
+        lumped = engine.check(units="us", fc=inputs["fc"], fy=inputs["fy"], b=inputs["b"],
+                              d=option.d, As=option.As, dt=option.dt, Mu=inputs["Mu"])
+        assert lumped.phiMn >= inputs["Mu"] * (1 - 1e-9) and lumped.state.eps_t >= 0.004
+        # Geometry recomputed here.
+        dt = inputs["h"] - inputs["cover"] - ds - db / 2
+        assert option.dt == pytest.approx(dt)
+        depths = [dt - i * (db + inputs["layer_gap"]) for i in range(option.layers)]
+        assert option.d == pytest.approx(sum(n * y for n, y in zip(option.per_layer, depths)) / option.count)
+        assert option.layers <= inputs["layers"]
+        works, _ = _works(inputs, option.per_layer, db, area, ds)
+        assert works, option.label
+        if option.layers == 2:
+            assert 2 <= option.per_layer[1] <= option.per_layer[0]
+            s_min = max(1.0, db, 4 / 3 * inputs["agg"])
+            assert not _fit(inputs["b"], inputs["cover"], ds, db, s_min, option.count)
+
+
+@settings(max_examples=30, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(design_inputs)
+def test_nothing_lighter_that_works_is_missing(inputs):
+    result = engine.design_section(**inputs)
+    ds = STIRRUP_DB[inputs["stirrup"]]
+    best = result.best
+    # Independent brute force over every bar, count and placement lighter than the best
+    # (or, with no best, up to the area no section could balance: 0.85 f'c b h / fy).
+    ceiling = best.As - 1e-9 if best is not None else 0.85 * inputs["fc"] * inputs["b"] * inputs["h"] / inputs["fy"]
+    lightest = None
+    for designation, (db, area) in US_BARS.items():
+        s_min = max(1.0, db, 4 / 3 * inputs["agg"])
+        for n in range(2, int(ceiling / area) + 1):
+            layouts = _layouts(n, inputs["b"], inputs["cover"], ds, db, s_min, inputs["layers"])
+            if not layouts:
+                if n > 2 and not _layouts(n - 1, inputs["b"], inputs["cover"], ds, db, s_min, inputs["layers"]):
+                    break
+                continue
+            if any(_works(inputs, layout, db, area, ds)[0] for layout in layouts):
+                lightest = (n * area, designation, n)
+                ceiling = min(ceiling, n * area - 1e-9)
+                break
+    assert lightest is None, f"missing a lighter arrangement {lightest}; best {best and best.label}"
+    if best is None:
+        assert not any(o.ok for o in result.options)
