@@ -1,0 +1,206 @@
+"""The beam schedule: per-row results and messages, layout tolerance, CSV output.
+
+Expected strengths are hand calculations written here (ACI 318-19 22.2 with
+yielded steel, Table 21.2.2 for φ); expected messages follow issue 6 (a bad
+cell names its row, column and value; decimal commas refused).
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+
+import pytest
+
+import engine
+from engine.schedule import (REQUIRED_COLUMNS, RESULT_COLUMNS, ScheduleError, check_schedule,
+                             parse_schedule, run_schedule, schedule_csv)
+
+HEADER = "mark,units,fc,fy,b,d,As,Mu"
+
+
+def _phi_mn_yielded(fc, fy, b, d, As, per_moment_unit):
+    """φMn for a yielded, tension-controlled rectangle: 0.9·As·fy·(d − a/2), a = As·fy/(0.85 f'c b)."""
+    a = As * fy / (0.85 * fc * b)  # ACI 318-19 22.2.2.4.1, C = T
+    return 0.9 * As * fy * (d - a / 2) / per_moment_unit  # Table 21.2.2: φ = 0.90
+
+
+# Hand values: B-101 φMn = 0.9·3.16·60000·(21.5 − 4.647/2)/12000 = 272.69 kip·ft.
+B101_PHI_MN = _phi_mn_yielded(4000, 60000, 12, 21.5, 3.16, 12000)
+# G-3 (SI): φMn = 0.9·1500·420·(500 − 1500·420/(0.85·28·300)/2)/1e6 = 255.9 kN·m.
+G3_PHI_MN = _phi_mn_yielded(28, 420, 300, 500, 1500, 1e6)
+
+
+def _schedule(*rows: str, header: str = HEADER) -> str:
+    return "\n".join((header,) + rows) + "\n"
+
+
+def test_good_and_failing_rows_are_computed():
+    schedule = run_schedule(_schedule(
+        "B-101,us,4000,60000,12,21.5,3.16,180",
+        "B-104,us,4000,60000,12,21.5,3.16,300",  # Mu above φMn: fails 9.5.1.1
+        "G-3,si,28,420,300,500,1500,250",
+    ))
+    good, failing, si = schedule.rows
+    assert (good.row, good.mark, good.computed, good.ok) == (2, "B-101", True, True)
+    assert good.phiMn == pytest.approx(B101_PHI_MN, rel=1e-12)
+    assert good.utilization == pytest.approx(180 / B101_PHI_MN, rel=1e-12)
+    # εt = 0.003(21.5 − c)/c with c = 4.647/0.85 = 5.467 in: 0.0088 ≥ εty + 0.003 = 0.00507.
+    assert good.eps_t == pytest.approx(0.003 * (21.5 - 5.467128) / 5.467128, rel=1e-6)
+    assert good.section_class == "tension-controlled"
+    assert good.message == ""
+    assert failing.computed and failing.ok is False
+    assert failing.utilization == pytest.approx(300 / B101_PHI_MN, rel=1e-12)
+    assert "9.5.1.1" in failing.message
+    assert si.phiMn == pytest.approx(G3_PHI_MN, rel=1e-12)
+    summary = schedule.summary
+    assert (summary.rows, summary.passed, summary.failed, summary.errors) == (3, 2, 1, 0)
+    assert (summary.worst_mark, summary.worst_row) == ("B-104", 3)
+    assert summary.worst_utilization == pytest.approx(300 / B101_PHI_MN, rel=1e-12)
+
+
+@pytest.mark.parametrize("row, words", [
+    pytest.param('B-1,us,4000,60000,12,21.5,"3,16",180', ("row 2", "As", "'3,16'", "decimal"),
+                 id="quoted-decimal-comma"),
+    pytest.param("B-1,us,4000,60000,12,21.5,3,16,180", ("row 2", "'180'", "column 9",
+                                                        "decimal comma"),
+                 id="unquoted-decimal-comma-shifts-cells"),
+    pytest.param('B-1,us,"4,000",60000,12,21.5,3.16,180', ("row 2", "fc", "'4,000'"),
+                 id="thousands-comma"),
+    pytest.param("B-1,us,four,60000,12,21.5,3.16,180", ("row 2", "fc", "'four'", "a number"),
+                 id="word"),
+    pytest.param("B-1,us,nan,60000,12,21.5,3.16,180", ("row 2", "fc", "'nan'"), id="nan"),
+    pytest.param("B-1,us,-4000,60000,12,21.5,3.16,180", ("row 2", "fc", "'-4000'", "(0, 30,000]"),
+                 id="negative"),  # the engine's range for f'c in psi
+    pytest.param("B-1,us,4000,60000,12,21.5,3.16,", ("row 2", "Mu", "empty"), id="empty-Mu"),
+    pytest.param("B-1,km,4000,60000,12,21.5,3.16,180", ("row 2", "units", "'km'"), id="units"),
+    pytest.param(",us,4000,60000,12,21.5,3.16,180", ("row 2", "mark", "empty"), id="no-mark"),
+    pytest.param("B-1,us,4000,60000,12,21.5,300,180", ("row 2", "As", "'300'"),
+                 id="As-above-gross-area"),
+])
+def test_a_bad_cell_fails_only_its_row_naming_row_column_and_value(row, words):
+    schedule = run_schedule(_schedule("B-101,us,4000,60000,12,21.5,3.16,180", row,
+                                      "G-3,si,28,420,300,500,1500,250"))
+    before, bad, after = schedule.rows
+    assert before.computed and after.computed
+    assert not bad.computed and bad.phiMn is None and bad.ok is None
+    message = bad.message.replace("row 3", "row 2")  # the bad row is line 3 of the file
+    assert bad.message.startswith("row 3")
+    for word in words:
+        assert word in message, (word, bad.message)
+    assert schedule.summary.errors == 1
+
+
+def test_optional_columns_spiral_dt_es_and_blank_optional_cells():
+    schedule = run_schedule(_schedule(
+        "B-301,us,4000,60000,12,21.5,3.16,180,23.5,,yes",
+        "B-302,us,4000,60000,12,21.5,3.16,180,,28000000,no",
+        "B-303,us,4000,60000,12,21.5,3.16,180,,,maybe",
+        header=HEADER + ",dt,es,spiral"))
+    with_dt, with_es, bad = schedule.rows
+    assert with_dt.inputs == dict(units="us", fc=4000.0, fy=60000.0, b=12.0, d=21.5, As=3.16,
+                                  Mu=180.0, dt=23.5, spiral=True)
+    assert with_es.inputs["es"] == 28_000_000.0 and with_es.inputs["spiral"] is False
+    # A non-default Es computes but warns (ACI 318-19 20.2.2.2).
+    assert with_es.computed and "20.2.2.2" in with_es.message
+    assert not bad.computed and "spiral" in bad.message and "'maybe'" in bad.message
+
+
+def test_blank_lines_bom_crlf_spaces_and_header_case_are_fine():
+    text = ("\ufeff\r\n Mark , UNITS,FC,Fy,b,d,as,mu,\r\n\r\n"
+            "B-101, us ,4000,60000,12,21.5,3.16,180,\r\n,,,,,,,,\r\n"
+            "G-3,SI,28,420,300,500,1500,250,\r\n\r\n")
+    schedule = run_schedule(text)
+    assert [(row.row, row.mark, row.computed) for row in schedule.rows] == [
+        (4, "B-101", True), (6, "G-3", True)]  # rows are the file's lines (header on line 2)
+    assert schedule.unknown_columns == ()
+    assert schedule.rows[0].phiMn == pytest.approx(B101_PHI_MN, rel=1e-12)
+
+
+def test_unknown_columns_are_reported_and_kept_in_the_output():
+    schedule = run_schedule(_schedule("B-101,us,4000,60000,12,21.5,3.16,180,roof,north bay",
+                                      header=HEADER + ",level,note"))
+    assert schedule.unknown_columns == ("level", "note")
+    assert any("level" in note for note in schedule.notes())
+    assert schedule.rows[0].computed
+    out = list(csv.DictReader(io.StringIO(schedule_csv(schedule))))
+    assert (out[0]["level"], out[0]["note"]) == ("roof", "north bay")
+
+
+@pytest.mark.parametrize("delimiter", ["\t", ";"], ids=["tab-paste", "semicolon"])
+def test_spreadsheet_paste_separators_are_recognised(delimiter):
+    text = _schedule("B-101,us,4000,60000,12,21.5,3.16,180").replace(",", delimiter)
+    schedule = run_schedule(text)
+    assert schedule.rows[0].phiMn == pytest.approx(B101_PHI_MN, rel=1e-12)
+
+
+def test_semicolon_file_with_decimal_commas_is_refused_per_cell():
+    schedule = run_schedule("mark;units;fc;fy;b;d;As;Mu\nB-101;us;4000;60000;12;21,5;3,16;180\n")
+    row = schedule.rows[0]
+    assert not row.computed
+    assert "column d" in row.message and "'21,5'" in row.message and "decimal" in row.message
+
+
+@pytest.mark.parametrize("text, words", [
+    pytest.param("", ("empty", "header"), id="empty"),
+    pytest.param("\n\n  \n", ("empty",), id="blank-lines-only"),
+    pytest.param("mark,units,fc,fy,b,d,As\nB-1,us,4000,60000,12,21.5,3.16\n", ("Mu",),
+                 id="Mu-column-missing"),
+    pytest.param("B-101,us,4000,60000,12,21.5,3.16,180\n", ("mark", "units", "lacks"),
+                 id="no-header-row"),
+    pytest.param("mark,units,fc,fc,fy,b,d,As,Mu\n", ("'fc'", "twice"), id="column-twice"),
+])
+def test_unreadable_schedules_raise_one_clear_error(text, words):
+    with pytest.raises(ScheduleError) as caught:
+        parse_schedule(text)
+    assert isinstance(caught.value, engine.InputError)
+    for word in words:
+        assert word in str(caught.value)
+    assert "\n" not in str(caught.value)
+
+
+def test_output_csv_is_the_input_then_the_results_in_full_precision():
+    text = _schedule("B-101,us,4000,60000,12,21.5,3.16,180", "B-9,us,x,60000,12,21.5,3.16,180")
+    schedule = run_schedule(text)
+    rows = list(csv.reader(io.StringIO(schedule_csv(schedule))))
+    assert rows[0] == HEADER.split(",") + list(RESULT_COLUMNS)
+    good, bad = (dict(zip(rows[0], row)) for row in rows[1:])
+    assert [good[c] for c in HEADER.split(",")] == "B-101,us,4000,60000,12,21.5,3.16,180".split(",")
+    # Written in full: reads back as the very float computed.
+    assert float(good["phiMn"]) == schedule.rows[0].phiMn
+    assert float(good["phiMn"]) == pytest.approx(B101_PHI_MN, rel=1e-12)
+    assert (good["ok"], good["section_class"], good["message"]) == ("true", "tension-controlled", "")
+    assert bad["phiMn"] == "" and bad["ok"] == "" and "column fc" in bad["message"]
+
+
+def test_results_of_an_earlier_run_are_recomputed_not_read():
+    first = schedule_csv(run_schedule(_schedule("B-101,us,4000,60000,12,21.5,3.16,180")))
+    tampered = first.replace("true", "false")
+    again = run_schedule(tampered)
+    assert again.unknown_columns == ()
+    assert schedule_csv(again) == first
+
+
+def test_progress_is_reported_and_json_is_plain_data():
+    rows = [f"B-{100 + i},us,4000,60000,12,21.5,3.16,{100 + i % 150}" for i in range(250)]
+    calls = []
+    schedule = check_schedule(parse_schedule(_schedule(*rows)),
+                              progress=lambda done, total: calls.append((done, total)))
+    assert calls == [(100, 250), (200, 250), (250, 250)]
+    data = json.loads(json.dumps(schedule.to_dict()))
+    assert data["summary"]["passed"] == 250 and len(data["rows"]) == 250
+    assert data["rows"][0]["mark"] == "B-100" and data["rows"][0]["row"] == 2
+
+
+def test_required_columns_are_the_issue_list():
+    assert REQUIRED_COLUMNS == ("mark", "units", "fc", "fy", "b", "d", "As", "Mu")  # issue 6
+
+
+def test_summary_text_names_counts_and_the_worst_beam():
+    schedule = run_schedule(_schedule("B-101,us,4000,60000,12,21.5,3.16,180",
+                                      "B-104,us,4000,60000,12,21.5,3.16,300",
+                                      "B-105,us,4000,60000,12,21.5,abc,300"))
+    text = schedule.summary.text()
+    assert "1 pass" in text and "1 fail" in text and "1 could not be computed" in text
+    assert "B-104" in text and f"{300 / B101_PHI_MN:.3f}" in text
