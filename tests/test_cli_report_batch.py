@@ -1,0 +1,171 @@
+"""`python -m engine report` and `python -m engine batch` as a user runs them.
+
+The round trip compares `batch` (the subject) with `check --json` (the
+reference) row by row; the exit statuses are issue 6's: 0 when every row was
+computed, 1 when some could not be, 2 when the file cannot be read.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+from pathlib import Path
+
+import pytest
+
+from engine.cli import main
+from engine.share_link import format_number
+
+DATA = Path(__file__).parent / "data"
+DEMO = DATA / "harbourline_schedule.csv"
+B101_FLAGS = ["--units", "us", "--fc", "4000", "--fy", "60000", "--b", "12", "--d", "21.5",
+              "--as", "3.16", "--mu", "180"]
+
+
+def test_report_writes_a_sheet_with_the_share_link(run_cli, tmp_path):
+    out = tmp_path / "B-101.html"
+    done = run_cli("report", *B101_FLAGS, "--out", str(out), "--project", "Harbourline Depot",
+                   "--mark", "B-101", "--engineer", "R. Ortega", "--date", "2025-03-14")
+    assert done.returncode == 0, done.stderr
+    assert "all checks pass" in done.stdout
+    sheet = out.read_text(encoding="utf-8")
+    assert sheet.startswith("<!DOCTYPE html>")
+    assert "Harbourline Depot" in sheet and "2025-03-14" in sheet
+    # Default link base, a placeholder for where the app is hosted.
+    assert "http://localhost:8000/?units=us&amp;fc=4000&amp;fy=60000&amp;b=12&amp;d=21.5" in sheet
+    assert "<svg" in sheet  # segno is installed with the web extra
+
+
+def test_report_json_equals_check_json(tmp_path, capsys):
+    out = tmp_path / "sheet.html"
+    assert main(["check", *B101_FLAGS, "--json"]) == 0
+    reference = json.loads(capsys.readouterr().out)
+    assert main(["report", *B101_FLAGS, "--json", "--out", str(out), "--date", "2025-03-14",
+                 "--link-base", "https://rhoscope.example/app/"]) == 0
+    reported = json.loads(capsys.readouterr().out)
+    assert reported.pop("link").startswith("https://rhoscope.example/app/?units=us&fc=4000")
+    assert reported.pop("out") == str(out)
+    assert json.dumps(reported) == json.dumps(reference)
+    sheet = out.read_text(encoding="utf-8")
+    assert f'data-key="phiMn" data-value="{format_number(reference["phiMn"])}"' in sheet
+
+
+def test_report_escapes_hostile_header_text(tmp_path, capsys):
+    out = tmp_path / "sheet.html"
+    assert main(["report", *B101_FLAGS, "--out", str(out), "--date", "2025-03-14",
+                 "--project", "<script>alert(1)</script>", "--mark", 'B-1"><b>']) == 0
+    sheet = out.read_text(encoding="utf-8")
+    assert "<script>" not in sheet and '"><b>' not in sheet
+    assert "&lt;script&gt;alert(1)&lt;/script&gt;" in sheet
+
+
+@pytest.mark.parametrize("extra, field", [
+    pytest.param(["--date", "14/03/2025"], "date", id="date-format"),
+    pytest.param(["--date", "2025-02-30"], "date", id="date-impossible"),
+    pytest.param(["--bf", "40", "--hf", "4"], "bf", id="flanged-not-covered"),
+    pytest.param(["--fc", "-4000"], "fc", id="bad-fc"),
+])
+def test_report_refuses_bad_input_in_one_line(run_cli, tmp_path, extra, field):
+    done = run_cli("report", *B101_FLAGS, "--out", str(tmp_path / "x.html"), *extra)
+    assert done.returncode == 2
+    assert done.stderr.count("\n") == 1 and "Traceback" not in done.stderr
+    assert f"{field}:" in done.stderr
+    assert not (tmp_path / "x.html").exists()
+
+
+def test_report_into_a_missing_folder_is_a_clear_error(run_cli, tmp_path):
+    done = run_cli("report", *B101_FLAGS, "--out", str(tmp_path / "no" / "x.html"))
+    assert done.returncode == 2 and "out:" in done.stderr and "Traceback" not in done.stderr
+
+
+def test_batch_of_the_demo_exits_0_though_beams_fail(run_cli, tmp_path):
+    out = tmp_path / "results.csv"
+    done = run_cli("batch", str(DEMO), "--out", str(out))
+    assert done.returncode == 0, done.stderr
+    # The demo has three failing beams: B-104 (9.5.1.1), B-201 (9.3.3.1), B-202 (9.6.1.2).
+    assert "13 beams: 10 pass, 3 fail, 0 could not be computed" in done.stdout
+    rows = list(csv.DictReader(out.open(encoding="utf-8")))
+    failing = {row["mark"]: row["message"] for row in rows if row["ok"] == "false"}
+    assert set(failing) == {"B-104", "B-201", "B-202"}
+    assert "9.5.1.1" in failing["B-104"] and "9.3.3.1" in failing["B-201"]
+    assert "9.6.1.2" in failing["B-202"]
+
+
+def test_round_trip_batch_against_check_row_by_row(tmp_path, capsys):
+    """A schedule written from the demo scenario, batched, then each row through `check --json`."""
+    beams = list(csv.DictReader(DEMO.open(encoding="utf-8")))
+    schedule = tmp_path / "written.csv"
+    with schedule.open("w", encoding="utf-8", newline="") as file:
+        writer = csv.DictWriter(file, fieldnames=list(beams[0]))
+        writer.writeheader()
+        writer.writerows(beams)
+    out = tmp_path / "out.csv"
+    assert main(["batch", str(schedule), "--out", str(out)]) == 0
+    capsys.readouterr()
+    results = list(csv.DictReader(out.open(encoding="utf-8")))
+    assert [row["mark"] for row in results] == [beam["mark"] for beam in beams]
+    for beam, result in zip(beams, results):
+        flags = ["--units", beam["units"], "--fc", beam["fc"], "--fy", beam["fy"], "--b", beam["b"],
+                 "--d", beam["d"], "--as", beam["As"], "--mu", beam["Mu"]]
+        flags += [item for name in ("dt", "es", "h") if beam[name]
+                  for item in (f"--{name}", beam[name])]
+        if beam["spiral"] == "yes":
+            flags.append("--spiral")
+        assert main(["check", *flags, "--json"]) == 0
+        reference = json.loads(capsys.readouterr().out)
+        for key in ("phiMn", "eps_t", "utilization"):
+            # Both are the shortest exact text of the same float.
+            assert result[key] == format_number(reference[key]), (beam["mark"], key)
+        assert result["section_class"] == reference["section_class"]
+        assert result["ok"] == str(reference["ok"]).lower()
+
+
+def test_batch_exits_1_when_some_rows_cannot_be_computed(run_cli, tmp_path):
+    schedule = tmp_path / "mixed.csv"
+    schedule.write_text("mark,units,fc,fy,b,d,As,Mu\n"
+                        "B-101,us,4000,60000,12,21.5,3.16,180\n"
+                        'B-102,us,4000,60000,12,21.5,"3,16",180\n'
+                        "G-3,si,28,420,300,500,1500,400\n", encoding="utf-8")
+    out = tmp_path / "out.csv"
+    done = run_cli("batch", str(schedule), "--out", str(out))
+    assert done.returncode == 1, done.stderr
+    assert "row 3 (B-102): column As = '3,16'" in done.stdout
+    rows = list(csv.DictReader(out.open(encoding="utf-8")))
+    assert [row["ok"] for row in rows] == ["true", "", "false"]
+
+
+def test_batch_json_carries_rows_and_summary(run_cli):
+    done = run_cli("batch", str(DEMO), "--json")
+    assert done.returncode == 0
+    data = json.loads(done.stdout)
+    assert data["summary"]["rows"] == 13 and data["summary"]["failed"] == 3
+    assert data["rows"][0]["mark"] == "B-101" and data["rows"][0]["ok"] is True
+
+
+def test_batch_without_out_prints_the_csv(run_cli):
+    done = run_cli("batch", str(DEMO))
+    assert done.returncode == 0
+    rows = list(csv.DictReader(io.StringIO(done.stdout)))
+    assert len(rows) == 13 and "phiMn" in rows[0]
+
+
+@pytest.mark.parametrize("content, words", [
+    pytest.param(None, ("cannot be read",), id="missing"),
+    pytest.param("mark,units,fc\n".encode("utf-16"), ("UTF-8",), id="utf-16"),
+    pytest.param(b"mark,units,fc,fy,b,d,As,Mu\nB-1,us,4000,60000,12,21.5,3.16,180\xb0\n",
+                 ("UTF-8", "byte"), id="latin-1-byte"),
+    pytest.param(b"", ("empty",), id="empty"),
+    pytest.param(b"mark,units,fc,fy,b,d,As\n", ("Mu",), id="no-Mu-column"),
+])
+def test_batch_exits_2_with_one_line_for_an_unreadable_file(run_cli, tmp_path, content, words):
+    path = tmp_path / "schedule.csv"
+    if content is not None:
+        path.write_bytes(content)
+    done = run_cli("batch", str(path), "--out", str(tmp_path / "out.csv"))
+    assert done.returncode == 2
+    assert done.stderr.count("\n") == 1 and "Traceback" not in done.stderr
+    assert done.stderr.startswith("python -m engine batch: ")
+    for word in words:
+        assert word in done.stderr
+    assert not (tmp_path / "out.csv").exists()
