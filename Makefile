@@ -58,7 +58,7 @@ bench: venv pyodide
 	$(PY) -m pytest tests/bench --benchmark-enable --benchmark-group-by=group \
 		--benchmark-columns=min,median,mean,stddev,rounds --benchmark-sort=name -q
 	$(PY) tests/bench/compare_runtimes.py
-	@if grep -rqs --include='*.py' 'mark.bench' tests; then \
+	@if grep -rqsE --include='*.py' 'mark\.bench([^a-z_]|$$)' tests; then \
 		echo "make bench: browser latency benchmarks (-m bench)"; \
 		$(PY) -m pytest -m bench -q -rs -s tests; fi
 
