@@ -69,6 +69,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         self._written_search: str | None = None
         self._switch_memo: tuple[Inputs, Inputs] | None = None
         self._applying = False
+        self._cached_curve: tuple[tuple, engine.CapacityCurve] | None = None
         self.unit_switch = pn.widgets.RadioButtonGroup(
             label="Units", options=UNIT_OPTIONS, value=self.units, color="primary",
             variant="outline", sizing_mode="stretch_width")
@@ -213,6 +214,11 @@ class BeamCheckPage(pn.viewable.Viewer):
 
     @param.depends("fc", "fy", "b", "d", "As", "Mu", "units", watch=True)
     def _refresh(self) -> None:
+        # One document message per update instead of one per changed property.
+        with pn.io.hold():
+            self._redraw()
+
+    def _redraw(self) -> None:
         for name in SLIDER_FIELDS:
             value = getattr(self, name)
             slider = self.sliders[name]
@@ -226,7 +232,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         inputs = self.inputs()
         try:
             result = engine.check(**inputs.engine_kwargs())
-            curve = engine.capacity_curve(**inputs.section_kwargs())
+            curve = self._curve(inputs, result)
         except engine.InputError as error:
             self.input_pane.object = summary.messages_html(
                 [f"{error}. The results show the last inputs that could be checked."])
@@ -239,6 +245,21 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.capacity_plot.update(curve, result)
         fc_slider = self.sliders["fc"]
         self.sweep_plot.update(result, (fc_slider.start, fc_slider.end), inputs.section_kwargs())
+
+    def _curve(self, inputs: Inputs, result: engine.FlexuralCheck) -> engine.CapacityCurve:
+        """The capacity curve, recomputed only when more than As changed.
+
+        The curve depends on the section and materials, not on As, so a drag of
+        the As slider reuses it (and sends no new curve data to the browser)
+        as long as the section's ρ stays within it.
+        """
+        key = tuple(v for k, v in inputs.section_kwargs().items() if k != "As")
+        cached = self._cached_curve
+        if cached is not None and cached[0] == key and result.rho <= cached[1].rho[-1]:
+            return cached[1]
+        curve = engine.capacity_curve(**inputs.section_kwargs())
+        self._cached_curve = (key, curve)
+        return curve
 
     def _update_as_end(self, inputs: Inputs) -> None:
         start, end, step = SLIDER_SPANS[inputs.units]["As"]

@@ -124,23 +124,55 @@ class CapacityPlot:
         self.figure = fig
 
     def update(self, curve: engine.CapacityCurve, result: engine.FlexuralCheck) -> None:
-        """Show `curve` and `result` (same section) by replacing data in place."""
+        """Show `curve` and `result` (same section) by replacing data in place.
+
+        Only what changed is sent: while As alone moves, the page passes the
+        same curve object, and just the marker (and Mu's line) move.
+        """
         system = engine.unit_system(result.to_dict()["units"])
-        rho = _finite(curve.rho)
-        Mn = _finite(curve.Mn)
-        marks = curve.marks
-        x_end = float(np.nanmax(rho))
-        y_top = max(float(np.nanmax(Mn)), result.Mu or 0.0) * _HEADROOM or 1.0
-        self.x_range.update(start=0.0, end=x_end)
-        self.y_range.update(start=0.0, end=y_top)
-        self.curve.data = dict(rho=rho, As=_finite(curve.As), Mn=Mn,
-                               phiMn=_finite(curve.phiMn), phi=_finite(curve.phi),
-                               eps_t=_finite(curve.eps_t),
-                               section_class=list(curve.section_class))
+        new_curve = curve is not self._shown_curve
+        if new_curve:
+            self._shown_curve = curve
+            self._show_curve(curve, system)
+        y_top = max(self._curve_top, result.Mu or 0.0) * _HEADROOM or 1.0
+        if new_curve or y_top != self.y_range.end:
+            self._show_regions(curve.marks, y_top)
         s = result.state
         self.section.data = dict(rho=[result.rho], As=[result.to_dict()["As"]],
                                  Mn=[result.Mn], phiMn=[result.phiMn], phi=[s.phi],
                                  eps_t=[s.eps_t], section_class=[s.section_class.value])
+        if result.Mu is None:
+            self.mu_span.visible = self.mu_label.visible = False
+        else:
+            self.mu_span.location = result.Mu
+            self.mu_label.update(y=result.Mu, text=f"Mu = {result.Mu:.4g} {system.moment}",
+                                 visible=True)
+            self.mu_span.visible = True
+
+    _shown_curve: engine.CapacityCurve | None = None
+    _curve_top = 0.0
+
+    def _show_curve(self, curve: engine.CapacityCurve, system: engine.UnitSystem) -> None:
+        rho = _finite(curve.rho)
+        Mn = _finite(curve.Mn)
+        self._curve_top = float(np.nanmax(Mn))
+        self.x_range.update(start=0.0, end=float(np.nanmax(rho)))
+        self.curve.data = dict(rho=rho, As=_finite(curve.As), Mn=Mn,
+                               phiMn=_finite(curve.phiMn), phi=_finite(curve.phi),
+                               eps_t=_finite(curve.eps_t),
+                               section_class=list(curve.section_class))
+        for key in LIMIT_KEYS:
+            self.spans[key].location = curve.marks[key]
+        self.figure.yaxis.axis_label = f"moment ({system.moment})"
+        self.hover.tooltips = [
+            ("ρ", "@rho{0.00000}"), ("As", f"@As{{0.000}} {system.area}"),
+            ("φMn", f"@phiMn{{0.0}} {system.moment}"), ("Mn", f"@Mn{{0.0}} {system.moment}"),
+            ("φ", "@phi{0.000}"), ("εt", "@eps_t{0.00000}"), ("class", "@section_class"),
+        ]
+
+    def _show_regions(self, marks: dict, y_top: float) -> None:
+        self.y_range.update(start=0.0, end=y_top)
+        x_end = self.x_range.end
         edges = [0.0] + [marks[key] for key in LIMIT_KEYS] + [x_end]
         edges[-1] = max(edges[-1], edges[-2])
         names = list(REGION_STYLE)
@@ -148,8 +180,6 @@ class CapacityPlot:
             left=edges[:-1], right=edges[1:], bottom=[0.0] * 5, top=[y_top] * 5,
             color=[REGION_STYLE[n][0] for n in names], hatch=[REGION_STYLE[n][1] for n in names],
             name=[REGION_NAMES[n] for n in names])
-        for key in LIMIT_KEYS:
-            self.spans[key].location = marks[key]
         # Labels sit in the head room; ρtc and ρmax are often close, so they
         # take alternate rows.
         rows = {"rho_min": 0.99, "rho_tc": 0.99, "rho_max": 0.935, "rho_b": 0.99}
@@ -158,19 +188,6 @@ class CapacityPlot:
             y=[y_top * rows[key] for key in LIMIT_KEYS],
             text=[LIMIT_LABELS[key] for key in LIMIT_KEYS],
             color=[LIMIT_STYLE[key][0] for key in LIMIT_KEYS])
-        if result.Mu is None:
-            self.mu_span.visible = self.mu_label.visible = False
-        else:
-            self.mu_span.location = result.Mu
-            self.mu_label.update(y=result.Mu, text=f"Mu = {result.Mu:.4g} {system.moment}",
-                                 visible=True)
-            self.mu_span.visible = True
-        self.figure.yaxis.axis_label = f"moment ({system.moment})"
-        self.hover.tooltips = [
-            ("ρ", "@rho{0.00000}"), ("As", f"@As{{0.000}} {system.area}"),
-            ("φMn", f"@phiMn{{0.0}} {system.moment}"), ("Mn", f"@Mn{{0.0}} {system.moment}"),
-            ("φ", "@phi{0.000}"), ("εt", "@eps_t{0.00000}"), ("class", "@section_class"),
-        ]
 
 
 class LimitSweepPlot:
@@ -203,8 +220,8 @@ class LimitSweepPlot:
                              line_dash="dotted", line_width=2)
         fig.add_layout(self.fc_span)
         fig.add_layout(self.rho_span)
-        self.rho_label = Label(x=0, y=0, text="ρ of this section", x_units="screen",
-                               x_offset=6, y_offset=2, text_font_size="11px",
+        self.rho_label = Label(x=0, y=0, text="ρ of this section", text_align="right",
+                               x_offset=-4, y_offset=2, text_font_size="11px",
                                text_color=MUTED)
         fig.add_layout(self.rho_label)
         fig.add_layout(Legend(items=items, location="top_left", label_text_font_size="11.5px",
@@ -228,7 +245,7 @@ class LimitSweepPlot:
                 (LIMIT_LABELS[k].split(" ")[0], f"@{k}{{0.00000}}") for k in LIMIT_KEYS]
         self.fc_span.location = section["fc"]
         self.rho_span.location = result.rho
-        self.rho_label.y = result.rho
+        self.rho_label.update(x=fc_span[1], y=result.rho)
 
 
 def sweep_limits(section: dict, fc_span: tuple[float, float], points: int = 41) -> dict:
