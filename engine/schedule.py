@@ -166,13 +166,12 @@ def parse_schedule(text: str) -> ParsedSchedule:
     try:
         header = next(reader)
         fields, columns, unknown = _header_fields(header, first + 1)
+        layout = _layout(fields, header, delimiter)
         rows = []
-        named = tuple(i for i, name in enumerate(header) if name.strip())
         for cells in reader:
-            number = first + reader.line_num
             if not any(cell.strip() for cell in cells):
                 continue
-            rows.append(_parse_row(number, cells, fields, named, len(header), delimiter))
+            rows.append(_parse_row(first + reader.line_num, cells, layout))
     except csv.Error as error:
         raise ScheduleError(f"row {first + reader.line_num}: not readable as CSV "
                             f"({error})") from None
@@ -209,12 +208,29 @@ def _header_fields(header: list[str], line: int) -> tuple[dict[int, str], list[s
     return fields, [name.strip() for name in header], unknown
 
 
-def _parse_row(number: int, cells: list[str], fields: Mapping[int, str],
-               named: tuple[int, ...], width: int, delimiter: str) -> ScheduleRow:
-    by_name = {name: (cells[i].strip() if i < len(cells) else "") for i, name in fields.items()}
-    kept = {name: by_name[name] for name in INPUT_COLUMNS if name in by_name}
-    mark = by_name["mark"]
-    raw = tuple(cells[:width]) + ("",) * (width - len(cells))
+@dataclass(frozen=True)
+class _Layout:
+    """What every row of one file shares: where each input column is."""
+
+    columns: tuple[tuple[int, str], ...]  # (position, input name), in INPUT_COLUMNS order
+    unnamed: tuple[int, ...]  # positions under an empty header cell
+    width: int
+    delimiter: str
+
+
+def _layout(fields: Mapping[int, str], header: list[str], delimiter: str) -> _Layout:
+    order = {name: k for k, name in enumerate(INPUT_COLUMNS)}
+    return _Layout(
+        columns=tuple(sorted(fields.items(), key=lambda item: order[item[1]])),
+        unnamed=tuple(i for i, name in enumerate(header) if not name.strip()),
+        width=len(header), delimiter=delimiter)
+
+
+def _parse_row(number: int, cells: list[str], layout: _Layout) -> ScheduleRow:
+    count, width = len(cells), layout.width
+    kept = {name: (cells[i].strip() if i < count else "") for i, name in layout.columns}
+    mark = kept["mark"]
+    raw = tuple(cells[:width]) + ("",) * (width - count) if count != width else tuple(cells)
 
     def failed(message: str) -> ScheduleRow:
         return ScheduleRow(row=number, mark=mark, cells=kept, inputs=None, raw=raw,
@@ -222,17 +238,18 @@ def _parse_row(number: int, cells: list[str], fields: Mapping[int, str],
 
     # A value under no column name most often means a decimal comma split a
     # number in two and shifted the cells after it; nothing in the row is safe.
-    stray = [i for i, cell in enumerate(cells) if cell.strip() and i not in named]
+    stray = [i for i in layout.unnamed if i < count and cells[i].strip()]
+    stray += [i for i in range(width, count) if cells[i].strip()]
     if stray:
         hint = (" (a decimal comma splits a number in two and shifts the cells after it: "
-                "write 3.16, not 3,16)" if delimiter == "," else "")
+                "write 3.16, not 3,16)" if layout.delimiter == "," else "")
         return failed(f"{cells[stray[0]].strip()!r} in column {stray[0] + 1}, which the header "
-                      f"does not name; {len(named)} named columns{hint}")
+                      f"does not name; {width - len(layout.unnamed)} named columns{hint}")
     if not mark:
         return failed("column mark is empty; every beam needs a mark")
     inputs: dict = {}
     try:
-        for name, text in by_name.items():
+        for name, text in kept.items():
             if name == "mark":
                 continue
             if name == "units":
@@ -241,10 +258,10 @@ def _parse_row(number: int, cells: list[str], fields: Mapping[int, str],
                 inputs["units"] = text
             elif name == "spiral":
                 inputs["spiral"] = _flag(text)
-            else:
-                value = _number(name, text)
-                if value is not None:
-                    inputs[name] = value
+            elif text and _NUMBER_TEXT.fullmatch(text):
+                inputs[name] = float(text)
+            elif text or name in REQUIRED_COLUMNS:
+                _refuse_number(name, text)
     except _CellError as error:
         return failed(str(error))
     return ScheduleRow(row=number, mark=mark, cells=kept, inputs=inputs, raw=raw)
@@ -255,14 +272,10 @@ class _CellError(ValueError):
         super().__init__(f"column {column} = {text!r}: expected {expected}")
 
 
-def _number(column: str, text: str) -> float | None:
-    """A cell's number; None for an empty optional cell."""
+def _refuse_number(column: str, text: str) -> None:
+    """Raise the message for a cell that is not a plain decimal number."""
     if not text:
-        if column in REQUIRED_COLUMNS:
-            raise _CellError(column, text, "a number (the cell is empty)")
-        return None
-    if _NUMBER_TEXT.fullmatch(text):
-        return float(text)
+        raise _CellError(column, text, "a number (the cell is empty)")
     if _COMMA_NUMBER.fullmatch(text):
         raise _CellError(column, text, "a number with a decimal point (3.16), no commas: "
                          "decimal commas and thousands separators are not read")
