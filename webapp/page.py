@@ -233,9 +233,11 @@ class BeamCheckPage(pn.viewable.Viewer):
         try:
             result = engine.check(**inputs.engine_kwargs())
             curve = self._curve(inputs, result)
-        except engine.InputError as error:
+        except (engine.InputError, ArithmeticError) as error:
+            text = str(error) if isinstance(error, engine.InputError) else (
+                f"the engine could not compute these inputs ({type(error).__name__})")
             self.input_pane.object = summary.messages_html(
-                [f"{error}. The results show the last inputs that could be checked."])
+                [f"{text}. The results show the last inputs that could be checked."])
             return
         self.input_pane.object = ""
         self.result = result

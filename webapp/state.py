@@ -151,7 +151,7 @@ def parse_query(search: str) -> tuple[Inputs, tuple[str, ...]]:
     inputs = Inputs(units=units, **accepted)
     try:
         engine.check(**inputs.engine_kwargs())
-    except engine.InputError as error:
+    except (engine.InputError, ArithmeticError) as error:
         # Each value passed on its own, but together they do not make a
         # section (e.g. a tiny b with the default As): start from B-204.
         messages.append(f"{error}. These values do not make a section together; "
@@ -211,6 +211,10 @@ def _engine_rejects(units: str, accepted: dict, name: str, number: float):
             return error
         return engine.InputError(name, number, f"a value that leaves the other inputs valid "
                                  f"({error})")
+    except ArithmeticError:
+        # An engine failure on an extreme value (e.g. a subnormal Mu) is still
+        # a value the page cannot show: reject it like any other.
+        return engine.InputError(name, number, "a value the engine can compute")
     return None
 
 
