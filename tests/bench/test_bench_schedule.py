@@ -43,8 +43,14 @@ def _schedule_to_csv(text: str) -> str:
     return schedule_csv(run_schedule(text))
 
 
-def _bare_checks(inputs: list[dict]) -> list:
-    return [engine.check(**item) for item in inputs]
+def _bare_checks(inputs: list[dict]) -> int:
+    """The engine calls alone; results are dropped, as the schedule drops them after use
+    (holding 10,000 results alive would time the garbage collector instead)."""
+    count = 0
+    for item in inputs:
+        engine.check(**item)
+        count += 1
+    return count
 
 
 @pytest.mark.benchmark(group="schedule")
@@ -56,5 +62,4 @@ def test_schedule_10k_rows(benchmark):
 @pytest.mark.benchmark(group="schedule")
 def test_bare_engine_checks_10k_rows(benchmark):
     assert all(item is not None for item in INPUTS)
-    results = benchmark(_bare_checks, INPUTS)
-    assert len(results) == ROWS
+    assert benchmark(_bare_checks, INPUTS) == ROWS
