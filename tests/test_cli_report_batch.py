@@ -169,3 +169,24 @@ def test_batch_exits_2_with_one_line_for_an_unreadable_file(run_cli, tmp_path, c
     for word in words:
         assert word in done.stderr
     assert not (tmp_path / "out.csv").exists()
+
+
+def test_mixed_demo_schedule_reports_each_bad_row(run_cli):
+    """tests/data/harbourline_schedule_mixed.csv: good, failing and malformed rows."""
+    done = run_cli("batch", str(DATA / "harbourline_schedule_mixed.csv"))
+    assert done.returncode == 1
+    rows = {row["mark"]: row for row in csv.DictReader(io.StringIO(done.stdout))}
+    assert rows["B-101"]["ok"] == "true" and rows["G-3"]["ok"] == "true"
+    assert rows["B-104"]["ok"] == "false"  # φMn = 272.7 < Mu = 300 kip·ft (hand, test_schedule)
+    assert rows["B-105"]["message"].startswith("row 5 (B-105): column As = '3,16'")
+    assert rows["B-106"]["message"].startswith("row 6 (B-106): column Mu = ''")
+    assert rows["G-7"]["message"].startswith("row 8 (G-7): column fc = '-28'")
+    assert {row["level"] for row in rows.values()} == {"roof", "level 2"}  # unknown column kept
+
+
+def test_report_with_a_link_too_long_for_a_qr_code_still_writes_the_sheet(run_cli, tmp_path):
+    out = tmp_path / "sheet.html"
+    done = run_cli("report", *B101_FLAGS, "--out", str(out), "--link-base",
+                   "http://localhost:8000/" + "a" * 4000 + "/")
+    assert done.returncode == 0 and "no QR code" in done.stderr
+    assert "(no QR code)" in out.read_text(encoding="utf-8")

@@ -60,7 +60,7 @@ def parse_date(text: str | None) -> str:
 
 
 def qr_svg(text: str) -> str | None:
-    """The QR code of `text` as inline SVG, or None when segno is not installed.
+    """The QR code of `text` as inline SVG, or None without segno or for a too long text.
 
     segno is imported here, not at the top, so the engine stays standard
     library only; it is in the `web` extra.
@@ -69,7 +69,10 @@ def qr_svg(text: str) -> str | None:
         import segno
     except ImportError:
         return None
-    return segno.make(text, error="m").svg_inline(scale=1, omitsize=True, dark="#000")
+    try:
+        return segno.make(text, error="m").svg_inline(scale=1, omitsize=True, dark="#000")
+    except ValueError:  # segno.DataOverflowError: longer than a QR code holds
+        return None
 
 
 def run_report(args: argparse.Namespace) -> str:
@@ -79,8 +82,8 @@ def run_report(args: argparse.Namespace) -> str:
     link = share_url(args.link_base, inputs)
     qr = qr_svg(link)
     if qr is None:
-        print("python -m engine report: segno is not installed, so the sheet has no QR code "
-              "(pip install segno)", file=sys.stderr)
+        print("python -m engine report: the sheet has no QR code (segno is not installed, "
+              "or the link is too long for one)", file=sys.stderr)
     sheet = calculation_sheet(inputs, project=args.project, mark=args.mark,
                               engineer=args.engineer, date=date, link=link, qr_svg=qr)
     try:
