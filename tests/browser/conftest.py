@@ -33,6 +33,15 @@ def pytest_configure(config):
     config.addinivalue_line("markers", "bench: a benchmark; runs only when asked for (-m bench)")
 
 
+def pytest_collection_modifyitems(config, items):
+    if "bench" in (config.getoption("markexpr") or ""):
+        return
+    skip = pytest.mark.skip(reason="benchmark: runs only with -m bench (make bench)")
+    for item in items:
+        if "bench" in item.keywords:
+            item.add_marker(skip)
+
+
 def _missing(reason: str):
     if os.environ.get("CI") == "true":
         pytest.fail(f"{reason} (browser tests must run in CI)", pytrace=False)
