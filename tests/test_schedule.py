@@ -204,3 +204,18 @@ def test_summary_text_names_counts_and_the_worst_beam():
     text = schedule.summary.text()
     assert "1 pass" in text and "1 fail" in text and "1 could not be computed" in text
     assert "B-104" in text and f"{300 / B101_PHI_MN:.3f}" in text
+
+
+def test_flange_and_compression_steel_columns_reach_the_engine():
+    # Reference: engine.check with the same keywords (the schedule only carries them over).
+    schedule = run_schedule(_schedule("B-1,us,4000,60000,12,21.5,3.16,180,48,4,,",
+                                      "B-2,us,4000,60000,12,21.5,6,300,,,1.2,2.5",
+                                      "B-3,us,4000,60000,12,21.5,6,300,,,1.2,",
+                                      header=HEADER + ",bf,hf,asc,dc"))
+    tee, doubly, half = schedule.rows
+    assert tee.phiMn == pytest.approx(engine.check(
+        units="us", fc=4000, fy=60000, b=12, d=21.5, As=3.16, Mu=180, bf=48, hf=4).phiMn, rel=1e-12)
+    assert doubly.phiMn == pytest.approx(engine.check(
+        units="us", fc=4000, fy=60000, b=12, d=21.5, As=6, Mu=300, asc=1.2, dc=2.5).phiMn,
+        rel=1e-12)
+    assert not half.computed and "column dc = ''" in half.message and "asc" in half.message
