@@ -109,6 +109,8 @@ def _safeguarded_newton(section: BeamSection, beta1: float, low: float, f_low: f
     if f_high <= tolerance:
         return Equilibrium(high, f_high, 0)
     c = (low * f_high - high * f_low) / (f_high - f_low)  # first guess: the chord
+    if not low < c < high:  # the chord underflowed (a vanishingly small steel area)
+        c = 0.5 * (low + high)
     last_step = high - low
     for iteration in range(1, _MAX_ITERATIONS + 1):
         f, slope = net_force_and_slope(section, c, beta1)
@@ -125,5 +127,7 @@ def _safeguarded_newton(section: BeamSection, beta1: float, low: float, f_low: f
         if not low < guess < high or abs(step) > 0.5 * last_step:
             guess = 0.5 * (low + high)  # bisection: the bracket halves
             step = c - guess
+            if not low < guess < high:  # the bracket is as narrow as floats allow
+                return Equilibrium(c, f, iteration)
         c, last_step = guess, abs(step)
     return Equilibrium(c, f, _MAX_ITERATIONS)

@@ -28,7 +28,9 @@ def required_steel(beam: BeamSection, Mu_base: float) -> float | None:
     drops (ACI 318-19 Table 21.2.2) and φMn may fall, so there the first
     crossing is bracketed on a grid up to the 9.3.3.1 limit first.
     """
-    if Mu_base <= 0:
+    # A demand this far below the section's scale needs no steel to twelve
+    # digits; going on would only push areas into floating-point underflow.
+    if Mu_base <= _RELATIVE_TOLERANCE * beam.fy * beam.As * beam.d:
         return 0.0
     closed_form = _tension_controlled_steel(beam, Mu_base)
     if closed_form is not None:

@@ -24,6 +24,11 @@ _HARD_MAXIMA = {
 }
 
 
+# Positive values below this fraction of a quantity's maximum are refused as
+# well: no beam has them, and carried through a check they underflow.
+_SMALLEST_FRACTION = 1e-9
+
+
 def hard_maximum(system: UnitSystem, kind: str) -> float:
     """The largest value of `kind` the engine computes in `system`."""
     return _HARD_MAXIMA[system.name][kind]
@@ -55,6 +60,10 @@ def in_range(
         too_low = "negative" if allow_zero else "zero or negative"
         raise InputError(field, value, accepted,
                          why=too_low if not low_ok else "larger than any real beam")
+    smallest = _SMALLEST_FRACTION * maximum
+    if 0 < result < smallest and not allow_zero:
+        raise InputError(field, value, accepted,
+                         why=f"below {smallest:.3g} {unit}, too small for any real beam")
     return result
 
 
