@@ -138,8 +138,16 @@ def test_textbook_closed_forms_of_the_t_beam(m):
     assert math.isclose(r.Mn, Mn / KIP_FT, rel_tol=1e-9)
 
 
+# Heavy steel, a narrow and thin flange: where the tension steel stays elastic and a > hf.
+over_reinforced_t = st.fixed_dictionaries({
+    "fc": st.floats(3000, 8000), "fy": st.floats(60000, 100000), "bw": st.floats(8, 24),
+    "d": st.floats(12, 48), "hf_ratio": st.floats(0.05, 0.2), "overhang": st.floats(0.0, 2.0),
+    "rho": st.floats(0.04, 0.1),
+})
+
+
 @PROFILE
-@given(flanged)
+@given(over_reinforced_t)
 def test_t_beam_with_elastic_steel_solves_the_quadratic(m):
     # Tension steel below yield (fs = Es·0.003(d − c)/c, 20.2.2.1) and the block below the flange:
     #   0.85 f'c [(bf − bw) hf + bw β1 c] = As Es 0.003 (d − c)/c, times c, a quadratic in c:
