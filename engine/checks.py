@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import cached_property
 
 from .flexure import FlexuralState, analyse
 from .limits import EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits
@@ -46,9 +47,17 @@ class FlexuralCheck:
     Mn: float  # kip·ft or kN·m
     phiMn: float
     Mu: float | None
-    As_req: float | None  # least As for Mu within 9.3.3.1, when Mu is given
     checks: tuple[CodeCheck, ...]
     warnings: tuple[str, ...]
+
+    @cached_property
+    def As_req(self) -> float | None:
+        """Least As for Mu within 9.3.3.1 at this b, d and dt, when Mu is given.
+
+        None when no Mu is given or no area reaches it. Found on first use:
+        the check itself needs it only for 9.6.1.3, when As < As,min.
+        """
+        return _required_steel(self.beam, self.Mu)
 
     @property
     def rho(self) -> float:
@@ -117,8 +126,8 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
     Mn = state.Mn_base * to_quoted
     phiMn = state.phi * Mn
     As_req = None
-    if Mu is not None:
-        As_req = required_steel(beam, Mu * beam.system.moment_to_base)
+    if Mu is not None and beam.As < limits.As_min.value:  # only 9.6.1.3 needs it
+        As_req = _required_steel(beam, Mu)
     warnings = scope_warnings(beam)
     if not state.steel_yields:
         warnings += (
@@ -129,7 +138,11 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
     if Mu is not None:
         checks += (_strength_check(beam, phiMn, Mu),)
     return FlexuralCheck(beam=beam, state=state, limits=limits, Mn=Mn, phiMn=phiMn, Mu=Mu,
-                         As_req=As_req, checks=checks, warnings=warnings)
+                         checks=checks, warnings=warnings)
+
+
+def _required_steel(beam: BeamSection, Mu: float | None) -> float | None:
+    return None if Mu is None else required_steel(beam, Mu * beam.system.moment_to_base)
 
 
 def _minimum_steel_check(beam: BeamSection, limits: ReinforcementLimits,

@@ -4,11 +4,12 @@ from __future__ import annotations
 
 import math
 
-from .flexure import analyse, capacity_point
+from .flexure import capacity_point
 from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
-from .materials import BLOCK_STRESS_FACTOR, yield_strain
+from .materials import BLOCK_STRESS_FACTOR, EPS_CU, beta1, yield_strain
 from .section import BeamSection
-from .strength_reduction import PHI_TENSION_CONTROLLED, TENSION_CONTROL_MARGIN, SectionClass
+from .strength_reduction import (PHI_TENSION_CONTROLLED, TENSION_CONTROL_MARGIN, SectionClass,
+                                 section_class)
 
 _GRID = 24  # transition-zone scan: there φMn may fall as As rises
 _RELATIVE_TOLERANCE = 1e-12
@@ -95,7 +96,11 @@ def _tension_controlled_steel(beam: BeamSection, Mu_base: float) -> float | None
     if discriminant < 0:
         return None
     As = 2 * Mn_required / (lever + math.sqrt(discriminant))
-    state = analyse(beam.with_tension_area(As))
-    if state.steel_yields and state.section_class is SectionClass.TENSION_CONTROLLED:
+    # The assumptions, checked on the strain profile (22.2.1.2) this As gives.
+    c = As * beam.fy / (BLOCK_STRESS_FACTOR * beam.fc * beam.b * beta1(beam.fc, beam.system))
+    eps_ty = yield_strain(beam.fy, beam.es)
+    yielded = EPS_CU * (beam.d - c) >= eps_ty * c
+    eps_t = EPS_CU * (beam.dt - c) / c
+    if yielded and section_class(eps_t, eps_ty) is SectionClass.TENSION_CONTROLLED:
         return As
     return None

@@ -204,7 +204,8 @@ def _flange(bf, hf, bw, dt, system: UnitSystem) -> Flange | None:
     size = _size_validator(system)
     width, thickness = size("bf", bf), size("hf", hf)
     if width < bw:
-        raise InputError("bf", bf, f"at least the web width b = {bw:g}")
+        raise InputError("bf", bf, f"at least the web width b = {bw:g} {system.length}")
     if thickness >= dt:
-        raise InputError("hf", hf, f"less than dt = {dt:g}", why="the flange must be above the tension steel")
+        raise InputError("hf", hf, f"less than dt = {dt:g} {system.length}",
+                         why="the flange must be above the tension steel")
     return Flange(width=width, thickness=thickness)
