@@ -25,12 +25,17 @@ def parse_layer(text: str) -> tuple[float, float]:
     return parse_float("layer area", area), parse_float("layer depth", depth)
 
 
-def add_section_flags(parser: argparse.ArgumentParser) -> None:
-    """Every flag that describes a section: units, materials, shape and steel."""
+def add_required_flags(parser: argparse.ArgumentParser, *more: tuple[str, str]) -> None:
+    """--units, --fc, --fy and --b, then each (flag, meaning) in `more`, all required."""
     parser.add_argument("--units", required=True, help="us (psi, in, kip·ft) or si (MPa, mm, kN·m)")
     for flag, meaning in (("--fc", "f'c, concrete strength"), ("--fy", "fy, steel yield strength"),
-                          ("--b", "b, width (the web width bw of a T or L)")):
+                          ("--b", "b, width (the web width bw of a T or L)"), *more):
         parser.add_argument(flag, required=True, metavar="F", help=meaning)
+
+
+def add_section_flags(parser: argparse.ArgumentParser) -> None:
+    """Every flag that describes a section: units, materials, shape and steel."""
+    add_required_flags(parser)
     parser.add_argument("--d", metavar="F", help="d, depth to the tension steel (with --as)")
     parser.add_argument("--as", metavar="F", help="As, tension steel area at d")
     parser.add_argument("--layer", action="append", default=[], metavar="AREA@DEPTH",

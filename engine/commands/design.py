@@ -8,16 +8,13 @@ import json
 from ..checks import CAUTION
 from ..design import DesignResult, design_section
 from ..detailing import Exposure, Support
-from .arguments import parse_float
+from .arguments import add_required_flags, parse_float
 
 
 def register(commands) -> None:
     parser = commands.add_parser("design", help="tension steel and bar arrangements for Mu")
-    parser.add_argument("--units", required=True, help="us (psi, in, kip·ft) or si (MPa, mm, kN·m)")
-    for flag, meaning in (("--fc", "f'c, concrete strength"), ("--fy", "fy, steel yield strength"),
-                          ("--b", "b, width"), ("--h", "h, overall depth"),
-                          ("--mu", "Mu, factored moment (kip·ft or kN·m)")):
-        parser.add_argument(flag, required=True, metavar="F", help=meaning)
+    add_required_flags(parser, ("--h", "h, overall depth"),
+                       ("--mu", "Mu, factored moment (kip·ft or kN·m)"))
     parser.add_argument("--cover", metavar="F",
                         help="clear cover to the stirrup (default ACI 318-19 Table 20.5.1.3.1)")
     parser.add_argument("--stirrup", metavar="SIZE", help="stirrup bar, e.g. #3 or 10 (default)")
