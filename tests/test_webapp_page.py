@@ -185,3 +185,13 @@ def test_limit_sweep_follows_fy(page):
 
 def test_caution_is_in_the_header(page):
     assert engine.CAUTION.replace("'", "&#x27;") in page.header.object
+
+
+def test_hooks_for_other_views(page):
+    # The page API other views rely on: current_inputs, share_url, add_view.
+    assert page.current_inputs()["Mu"] == 190.0
+    engine.check(**page.current_inputs())
+    assert page.share_url().endswith(page.share_query())
+    import panel as pn
+    page.add_view("Extra", pn.pane.Str("x"))
+    assert page.views._names[-1] == "Extra" and len(page.views) == 2

@@ -103,6 +103,15 @@ class BeamCheckPage(pn.viewable.Viewer):
                                     margin=(4, 12))
         self.capacity_plot = CapacityPlot()
         self.sweep_plot = LimitSweepPlot()
+        # The results area: the check's own tab first; other views add theirs (add_view).
+        self.views = pn.Tabs(
+            ("Check", pn.Column(
+                pn.Row(pn.pane.Bokeh(self.capacity_plot.figure, sizing_mode="stretch_width",
+                                     min_width=380),
+                       pn.pane.Bokeh(self.sweep_plot.figure, width=320),
+                       sizing_mode="stretch_width"),
+                self.details, sizing_mode="stretch_width")),
+            dynamic=False, sizing_mode="stretch_width", margin=(0, 0))
         self._set_spans(self.units, self.inputs())
         location = pn.state.location
         if location is not None:
@@ -143,6 +152,23 @@ class BeamCheckPage(pn.viewable.Viewer):
     def share_query(self) -> str:
         """The query string of the current inputs."""
         return self.inputs().to_query()
+
+    # -- hooks for other views (stable names) ---------------------------
+
+    def current_inputs(self) -> dict:
+        """The `engine.check` keywords of the current check, Mu included (None for none)."""
+        return self.inputs().engine_kwargs()
+
+    def share_url(self) -> str:
+        """The current share link as the browser shows it (base address + query)."""
+        location = pn.state.location
+        href = getattr(location, "href", "") if location is not None else ""
+        base = href.split("?", 1)[0].split("#", 1)[0] if href else ""
+        return (base or "http://localhost:5006/") + self.share_query()
+
+    def add_view(self, title: str, viewable) -> None:
+        """Append `viewable` as a tab named `title` after the check's own tab."""
+        self.views.append((title, viewable))
 
     def _label(self, name: str, units: str | None = None) -> str:
         return f"{LABELS[name]} ({unit_label(units or self.units, name)})"
@@ -297,11 +323,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         )
         main = pn.Column(
             self.cards,
-            pn.Row(pn.pane.Bokeh(self.capacity_plot.figure, sizing_mode="stretch_width",
-                                 min_width=380),
-                   pn.pane.Bokeh(self.sweep_plot.figure, width=320),
-                   sizing_mode="stretch_width"),
-            self.details,
+            self.views,
             sizing_mode="stretch_width", min_width=340, styles={"flex": "1 1 600px"},
         )
         return pn.Column(
