@@ -16,8 +16,8 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 import engine
-from engine.share_link import (KEYS, format_number, parse_share_query, share_query,
-                               share_url)
+from engine.share_link import (CHECK_KEYS, KEYS, PAGE_KEYS, format_number, parse_share_query,
+                               read_share_query, share_query, share_url)
 
 # Harbourline Depot roof beam B-101 (invented).
 B101 = dict(units="us", fc=4000, fy=60000, b=12, d=21.5, As=3.16, Mu=180)
@@ -136,10 +136,17 @@ def test_parse_ignores_other_keys_and_accepts_a_leading_question_mark():
 
 
 def test_unknown_input_is_refused_rather_than_dropped():
+    with pytest.raises(engine.InputError, match="^colour:"):
+        share_query({**B101, "colour": 40})
     with pytest.raises(engine.InputError, match="^bf:"):
-        share_query({**B101, "bf": 40})
+        share_query(B101, {"bf": 40})  # a check input is not a page setting
 
 
 def test_keys_are_the_check_keywords():
-    # The link's keys are engine.check's own keyword names (issue 2's contract).
-    assert set(KEYS) == {"units", "fc", "fy", "b", "d", "As", "Mu", "dt", "es", "spiral"}
+    # The link's check keys are engine.check's own keyword names (issues 2 and 5), `layers`
+    # travelling as the CLI's repeatable `layer`.
+    import inspect
+    from engine.section import beam_section
+    keywords = set(inspect.signature(beam_section).parameters) | {"Mu"}
+    assert set(CHECK_KEYS) == keywords
+    assert set(KEYS) == (keywords - {"layers"}) | {"layer"} | set(PAGE_KEYS)

@@ -1,33 +1,53 @@
 """The app's input state, and its round trip through a share link's query string.
 
-A link carries every input in the units it names: `units` ("us" or "si"),
-`fc`, `fy`, `b`, `d`, `As` and `Mu` (blank for none). Numbers are written in
-the shortest form that reads back to the same float, so opening a link
-reproduces the check exactly. Parsing never raises: a value that is not a
-plain decimal number, or that the engine rejects, falls back to the default
-for that field alone and yields a plain-text message naming the field.
+The link format is `engine.share_link`'s (the one encoder and reader of links):
+`units` ("us" or "si"), `fc`, `fy`, `b`, `d`, `As` and `Mu` (blank for none),
+and for other sections `dt`, `h`, `shape` (rect, T, L) with `bf` and `hf`
+(or the slab's `sw` and `ln`, Table 6.3.2.1), `asc` and `dc`, and one
+`layer=AREA@DEPTH` per extra tension layer; the bar-sizing inputs `cover`,
+`stirrup`, `agg`, `nlayers`, `span`, `support`, and `bars` (the chosen
+arrangement). Numbers are written in the shortest form that reads back to
+the same float, so opening a link reproduces the check exactly.
+
+Parsing never raises: a value that does not read, or that the engine
+rejects, falls back to the default for that field alone and yields a
+plain-text message naming the field.
 """
 
 from __future__ import annotations
 
-import math
-import re
-from dataclasses import dataclass
-from urllib.parse import parse_qsl, urlencode
+from dataclasses import dataclass, field, fields, replace
 
 import engine
+from engine.share_link import KEYS, format_number, read_share_query, share_query
 
 NUMBER_FIELDS = ("fc", "fy", "b", "d", "As", "Mu")
-QUERY_KEYS = ("units",) + NUMBER_FIELDS
+QUERY_KEYS = KEYS
 QUANTITY = {"fc": "stress", "fy": "stress", "b": "length", "d": "length", "As": "area",
-            "Mu": "moment"}
+            "Mu": "moment", "dt": "length", "h": "length", "bf": "length", "hf": "length",
+            "sw": "length", "ln": "length", "asc": "area", "dc": "length", "cover": "length",
+            "agg": "length", "span": "length"}
 UNIT_NAMES = ("us", "si")
+SHAPES = ("rect", "T", "L")
 
 # Beam B-204, Harbourline Depot (level 2): 4 #8 bars in a 14 in x 24 in beam.
 # The SI set is the same beam in round metric sizes (4 #25 bars of ASTM A615M).
 DEFAULTS = {
     "us": {"fc": 4000.0, "fy": 60000.0, "b": 14.0, "d": 21.5, "As": 3.16, "Mu": 190.0},
     "si": {"fc": 28.0, "fy": 420.0, "b": 350.0, "d": 545.0, "As": 2040.0, "Mu": 258.0},
+}
+# B-204 cast with the level-2 slab: what a T or L starts from when chosen, and
+# the fallback for a link's bad flange value. h is the beam's overall depth.
+SECTION_DEFAULTS = {
+    "us": {"h": 24.0, "bf": 48.0, "hf": 5.0, "sw": 96.0, "ln": 288.0, "asc": 0.4, "dc": 2.5},
+    "si": {"h": 610.0, "bf": 1200.0, "hf": 125.0, "sw": 2400.0, "ln": 7300.0, "asc": 258.0,
+           "dc": 64.0},
+}
+# Bar sizing defaults (common practice: 1.5 in / 38 mm clear cover to #3 / No. 10
+# stirrups, 3/4 in / 19 mm aggregate, bars in up to two layers).
+DESIGN_DEFAULTS = {
+    "us": {"cover": 1.5, "stirrup": "#3", "agg": 0.75, "nlayers": 2},
+    "si": {"cover": 38.0, "stirrup": "10", "agg": 19.0, "nlayers": 2},
 }
 
 # Slider spans (start, end, step) covering practical beams. The As end is a
@@ -41,10 +61,7 @@ SLIDER_SPANS = {
 }
 
 _MAX_SHOWN = 80  # characters of a rejected value quoted back in a message
-_MAX_FIELDS = 64  # query fields read at all; the rest of a huge query is ignored
-# A plain ASCII decimal, as a person types it. float() alone would also take
-# "nan", "inf", "1_000" and non-ASCII digits, none of which a link should carry.
-_DECIMAL = re.compile(r"[+-]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][+-]?[0-9]+)?")
+_MAX_LAYERS = 8  # extra tension layers a link may add
 
 
 @dataclass(frozen=True)
@@ -52,6 +69,11 @@ class Inputs:
     """One complete set of inputs, in the base units of `units`.
 
     us: psi, in, in², kip·ft; si: MPa, mm, mm², kN·m. `Mu` is None for none.
+    `As` at `d` is the first tension layer and `layers` the others, as
+    (area, depth) pairs (`engine.check`'s meaning). The flange (`bf`, `hf`)
+    counts only when `shape` is "T" or "L"; when `sw` and `ln` are set, `bf`
+    was found from them. `cover` ... `bars` are the bar-sizing inputs (None:
+    the engine's default); `bars` names the chosen arrangement ("#8:4,2").
     """
 
     units: str
@@ -61,11 +83,40 @@ class Inputs:
     d: float
     As: float
     Mu: float | None
+    dt: float | None = None
+    h: float | None = None
+    shape: str = "rect"
+    bf: float | None = None
+    hf: float | None = None
+    sw: float | None = None
+    ln: float | None = None
+    asc: float | None = None
+    dc: float | None = None
+    layers: tuple[tuple[float, float], ...] = ()
+    cover: float | None = None
+    stirrup: str | None = None
+    agg: float | None = None
+    nlayers: int | None = None
+    span: float | None = None
+    support: str | None = None
+    bars: str | None = field(default=None)
+
+    @property
+    def flanged(self) -> bool:
+        return self.shape in ("T", "L") and self.bf is not None and self.hf is not None
 
     def engine_kwargs(self) -> dict:
-        """Keyword arguments for `engine.check`."""
-        return {"units": self.units, "fc": self.fc, "fy": self.fy, "b": self.b,
-                "d": self.d, "As": self.As, "Mu": self.Mu}
+        """Keyword arguments for `engine.check` (Mu included, None for none)."""
+        kwargs = {"units": self.units, "fc": self.fc, "fy": self.fy, "b": self.b,
+                  "d": self.d, "As": self.As, "Mu": self.Mu}
+        for name in ("dt", "h", "asc", "dc"):
+            if getattr(self, name) is not None:
+                kwargs[name] = getattr(self, name)
+        if self.flanged:
+            kwargs.update(bf=self.bf, hf=self.hf)
+        if self.layers:
+            kwargs["layers"] = [tuple(layer) for layer in self.layers]
+        return kwargs
 
     def section_kwargs(self) -> dict:
         """Keyword arguments for `engine.capacity_curve` (no Mu)."""
@@ -73,12 +124,18 @@ class Inputs:
         del kwargs["Mu"]
         return kwargs
 
+    def settings(self) -> dict:
+        """The link's page keys for these inputs (None: left out)."""
+        flanged = self.shape in ("T", "L")
+        return {"shape": None if self.shape == "rect" else self.shape,
+                "sw": self.sw if flanged else None, "ln": self.ln if flanged else None,
+                "cover": self.cover, "stirrup": self.stirrup, "agg": self.agg,
+                "nlayers": self.nlayers, "span": self.span, "support": self.support,
+                "bars": self.bars}
+
     def to_query(self) -> str:
         """The query string (with its leading "?") that reproduces these inputs."""
-        pairs = [("units", self.units)]
-        pairs += [(name, format_number(getattr(self, name))) for name in NUMBER_FIELDS[:-1]]
-        pairs.append(("Mu", "" if self.Mu is None else format_number(self.Mu)))
-        return "?" + urlencode(pairs)
+        return "?" + share_query(self.engine_kwargs(), self.settings())
 
 
 def default_inputs(units: str = "us") -> Inputs:
@@ -86,22 +143,37 @@ def default_inputs(units: str = "us") -> Inputs:
     return Inputs(units=units, **DEFAULTS[units])
 
 
-def format_number(value: float) -> str:
-    """The shortest decimal text that reads back as the same float ("4000", "3.16", "1e20")."""
-    text = repr(float(value))
-    text = text[:-2] if text.endswith(".0") else text
-    return text.replace("e+", "e")  # a "+" would need escaping in a URL
-
-
 def convert_inputs(inputs: Inputs, units: str) -> Inputs:
-    """`inputs` expressed in `units`, each value converted by the engine (not rounded)."""
+    """`inputs` expressed in `units`, each value converted by the engine (not rounded).
+
+    Bar designations move to the same bar in the other system (ASTM A615
+    #8 is A615M No. 25: the soft-metric bars of one table).
+    """
     source, target = engine.unit_system(inputs.units), engine.unit_system(units)
-    values = {}
-    for name in NUMBER_FIELDS:
-        value = getattr(inputs, name)
-        values[name] = None if value is None else engine.convert(
-            value, QUANTITY[name], source, target)
-    return Inputs(units=target.name, **values)
+
+    def convert(value, quantity):
+        return None if value is None else engine.convert(value, quantity, source, target)
+
+    values = {name: convert(getattr(inputs, name), quantity)
+              for name, quantity in QUANTITY.items()}
+    values["layers"] = tuple((convert(area, "area"), convert(depth, "length"))
+                             for area, depth in inputs.layers)
+    values["stirrup"] = _same_bar(inputs.stirrup, source, target)
+    if inputs.bars is not None:
+        designation, _, counts = inputs.bars.partition(":")
+        converted = _same_bar(designation, source, target)
+        values["bars"] = None if converted is None else f"{converted}:{counts}"
+    return replace(inputs, units=target.name, **values)
+
+
+def _same_bar(designation: str | None, source, target) -> str | None:
+    if designation is None:
+        return None
+    try:
+        index = engine.standard_bars(source).index(engine.bar("bar", designation, source))
+    except engine.InputError:
+        return None
+    return engine.standard_bars(target)[index].designation
 
 
 def unit_label(units: str, name: str) -> str:
@@ -117,38 +189,78 @@ def parse_query(search: str) -> tuple[Inputs, tuple[str, ...]]:
     later versions add). Each message is plain text naming the field, the
     value given and what is accepted; it must be shown escaped.
     """
-    values, messages = _first_values(search)
-    units_raw = values.get("units")
-    units = "us"
-    if units_raw is not None:
-        key = units_raw.strip().lower()
-        if key in UNIT_NAMES:
-            units = key
-        else:
-            messages.append(f"units: {_shown(units_raw)} is not a unit system; expected "
+    reading = read_share_query(search)
+    values = reading.values
+    messages = [f"{name}: given {count} times in the link; using the first."
+                for name, count in reading.repeated.items()]
+    units = values.get("units", "us")
+    for problem in reading.problems:
+        if problem.field == "units":
+            messages.append(f"units: {_shown(problem.value)} is not a unit system; expected "
                             f"'us' or 'si'. Using US customary.")
+        else:
+            messages.append(f"{problem.field}: {_shown(problem.value)} is not accepted; "
+                            f"expected {problem.accepted}. {_fallback(units, problem.field)}")
     defaults = DEFAULTS[units]
     accepted = dict(defaults)
+    layers = list(values.get("layers", ()))
+    if layers and "As" not in values and "d" not in values:
+        # A link in the CLI's form: every tension layer as `layer`, no As and d.
+        (values["As"], values["d"]), layers = layers[0], layers[1:]
     for name in NUMBER_FIELDS:
-        raw = values.get(name)
-        if raw is None:
+        if name not in values:
             continue
-        if name == "Mu" and raw.strip() == "":
+        number = values[name]
+        if name == "Mu" and number is None:
             accepted["Mu"] = None
             continue
-        fallback = f"Using {format_number(defaults[name])} {unit_label(units, name)}."
-        number, problem = _decimal(raw)
-        if problem:
-            messages.append(f"{name}: {_shown(raw)} {problem}. {fallback}")
-            continue
         error = _engine_rejects(units, accepted, name, number)
-        if error is not None:
-            messages.append(f"{name}: {_shown(raw)} is not accepted; expected "
-                            f"{error.accepted}"
-                            + (f" ({error.why})" if error.why else "") + f". {fallback}")
-            continue
-        accepted[name] = number
-    inputs = Inputs(units=units, **accepted)
+        if error is None:
+            accepted[name] = number
+        else:
+            messages.append(_rejected(name, number, error, _fallback(units, name)))
+    kwargs = dict(accepted)
+    if len(layers) > _MAX_LAYERS:
+        messages.append(f"layer: {len(layers)} extra layers in the link; using the first "
+                        f"{_MAX_LAYERS}.")
+        layers = layers[:_MAX_LAYERS]
+    kept_layers = []
+    for index, layer in enumerate(layers, start=2):
+        error = _group_rejects(units, dict(kwargs, layers=kept_layers + [layer]))
+        if error is None:
+            kept_layers.append(layer)
+        else:
+            messages.append(_rejected(f"layer {index}", f"{format_number(layer[0])}@"
+                                      f"{format_number(layer[1])}", error,
+                                      "This layer is left out."))
+    if kept_layers:
+        kwargs["layers"] = kept_layers
+    for name in ("dt", "h"):
+        if values.get(name) is not None:
+            kwargs = _try(units, kwargs, {name: values[name]}, messages, name)
+    shape = values.get("shape")
+    if shape is None and (values.get("bf") is not None or values.get("hf") is not None):
+        shape = "T"
+    flange = {}
+    if shape in ("T", "L"):
+        flange = _flange(units, shape, kwargs, values, messages)
+        if not flange:
+            shape = "rect"
+    kwargs.update({k: v for k, v in flange.items() if k in ("bf", "hf")})
+    for name in ("asc", "dc"):
+        if (values.get(name) is None) != (values.get("asc" if name == "dc" else "dc") is None):
+            if values.get(name) is None:
+                messages.append(f"{name}: missing; compression steel needs both asc and dc. "
+                                f"The compression steel is left out.")
+    if values.get("asc") is not None and values.get("dc") is not None:
+        kwargs = _try(units, kwargs, {"asc": values["asc"], "dc": values["dc"]}, messages,
+                      "asc", "The compression steel is left out.")
+    design = _design_settings(units, kwargs, values, messages)
+    inputs = Inputs(units=units, shape=shape or "rect",
+                    **{k: (tuple(v) if k == "layers" else v) for k, v in kwargs.items()
+                       if k != "units"}, **design)
+    if inputs.flanged and flange.get("sw") is not None:
+        inputs = replace(inputs, sw=flange["sw"], ln=flange["ln"])
     try:
         engine.check(**inputs.engine_kwargs())
     except (engine.InputError, ArithmeticError) as error:
@@ -160,38 +272,113 @@ def parse_query(search: str) -> tuple[Inputs, tuple[str, ...]]:
     return inputs, tuple(messages)
 
 
-def _first_values(search: str) -> tuple[dict[str, str], list[str]]:
-    """The first value of each known key (matched case-insensitively), and messages."""
-    text = search[1:] if search.startswith("?") else search
-    try:
-        pairs = parse_qsl(text, keep_blank_values=True, max_num_fields=_MAX_FIELDS)
-    except ValueError:
-        pairs = parse_qsl(text, keep_blank_values=True)[:_MAX_FIELDS]
-    canonical = {key.lower(): key for key in QUERY_KEYS}
-    values: dict[str, str] = {}
-    counts: dict[str, int] = {}
-    for key, value in pairs:
-        name = canonical.get(key.strip().lower())
-        if name is None:
+def _flange(units: str, shape: str, kwargs: dict, values: dict, messages: list) -> dict:
+    """bf and hf (and sw, ln) for a T or L, each falling back alone; {} for none."""
+    base = SECTION_DEFAULTS[units]
+    hf = values.get("hf")
+    if hf is None or _group_rejects(units, dict(kwargs, bf=max(kwargs["b"], base["bf"]),
+                                                hf=hf)) is not None:
+        if hf is not None:
+            messages.append(_rejected("hf", hf, _group_rejects(
+                units, dict(kwargs, bf=max(kwargs["b"], base["bf"]), hf=hf)),
+                f"Using {format_number(base['hf'])} {unit_label(units, 'hf')}."))
+        hf = base["hf"]
+    slab = {}
+    sw, ln = values.get("sw"), values.get("ln")
+    if sw is not None and ln is not None:
+        try:
+            bf = engine.effective_flange_width(shape, kwargs["b"], hf, sw, ln)
+            slab = {"sw": sw, "ln": ln}
+        except (engine.InputError, ArithmeticError) as error:
+            messages.append(f"{error}. The flange width is taken as given.")
+            bf = values.get("bf")
+    else:
+        bf = values.get("bf")
+    if bf is None:
+        bf = max(kwargs["b"], base["bf"])
+    error = _group_rejects(units, dict(kwargs, bf=bf, hf=hf))
+    if error is None:
+        return {"bf": bf, "hf": hf, **slab}
+    fallback = max(kwargs["b"], base["bf"])
+    usable = fallback != bf and _group_rejects(units, dict(kwargs, bf=fallback, hf=hf)) is None
+    messages.append(_rejected("bf", bf, error, f"Using {format_number(fallback)} "
+                              f"{unit_label(units, 'bf')}." if usable else
+                              "Using a rectangular section."))
+    return {"bf": fallback, "hf": hf} if usable else {}
+
+
+def _design_settings(units: str, kwargs: dict, values: dict, messages: list) -> dict:
+    """The bar-sizing inputs a link carries, each judged by `engine.design_section`."""
+    base = {"units": units, "fc": kwargs["fc"], "fy": kwargs["fy"], "b": kwargs["b"],
+            "h": kwargs.get("h") or max(SECTION_DEFAULTS[units]["h"], 1.2 * kwargs["d"]),
+            "Mu": kwargs.get("Mu") or DEFAULTS[units]["Mu"]}
+    settings: dict = {}
+    for name, engine_name in (("cover", "cover"), ("stirrup", "stirrup"), ("agg", "agg"),
+                              ("nlayers", "layers")):
+        value = values.get(name)
+        if value is None:
             continue
-        counts[name] = counts.get(name, 0) + 1
-        values.setdefault(name, value)
-    messages = [f"{name}: given {count} times in the link; using the first, "
-                f"{_shown(values[name])}." for name, count in counts.items() if count > 1]
-    return values, messages
+        try:
+            engine.design_section(**base, **{engine_name: value})
+        except engine.InputError as error:
+            if error.field in (engine_name, name):
+                messages.append(_rejected(name, value, error, "Using the default."))
+                continue
+        except ArithmeticError:
+            continue
+        settings[name] = value
+    span, support = values.get("span"), values.get("support")
+    if (span is None) != (support is None):
+        messages.append(f"{'support' if support is None else 'span'}: missing; the depth "
+                        f"guidance of Table 9.3.1.1 needs both span and support. Left out.")
+    elif span is not None:
+        try:
+            engine.design_section(**base, span=span, support=support)
+            settings.update(span=span, support=support)
+        except engine.InputError as error:
+            messages.append(_rejected(error.field, error.value, error, "Left out."))
+    if values.get("bars") is not None:
+        settings["bars"] = values["bars"]
+    return settings
 
 
-def _decimal(raw: str) -> tuple[float, str]:
-    """`raw` as a float, or (nan, why not) when it is not a finite plain decimal."""
-    text = raw.strip()
-    if text == "":
-        return math.nan, "is empty"
-    if _DECIMAL.fullmatch(text) is None:
-        return math.nan, "is not a plain decimal number"
-    number = float(text)
-    if not math.isfinite(number):
-        return math.nan, "is too large to be a number"
-    return number, ""
+def _try(units: str, kwargs: dict, extra: dict, messages: list, name: str,
+         fallback: str = "") -> dict:
+    """`kwargs` with `extra` if the engine accepts them together, else with a message."""
+    trial = dict(kwargs, **extra)
+    error = _group_rejects(units, trial)
+    if error is None:
+        return trial
+    messages.append(_rejected(name, extra[name], error,
+                              fallback or f"{name} is left out (the default)."))
+    return kwargs
+
+
+def _group_rejects(units: str, kwargs: dict):
+    try:
+        engine.check(**dict(kwargs, units=units))
+    except engine.InputError as error:
+        return error
+    except ArithmeticError:
+        return engine.InputError("value", None, "a value the engine can compute")
+    return None
+
+
+def _rejected(name: str, value, error, fallback: str) -> str:
+    shown = _shown(value) if isinstance(value, str) else _shown(format_number(value)) \
+        if isinstance(value, (int, float)) else _shown(str(value))
+    why = f" ({error.why})" if getattr(error, "why", "") else ""
+    about = "" if error.field == name else f" with the other inputs ({error})"
+    accepted = error.accepted if error.field == name else "a value that leaves the section valid"
+    return f"{name}: {shown} is not accepted; expected {accepted}{why}{about}. {fallback}"
+
+
+def _fallback(units: str, name: str) -> str:
+    if name in DEFAULTS[units]:
+        return f"Using {format_number(DEFAULTS[units][name])} {unit_label(units, name)}."
+    if name.startswith("layer"):
+        return "This layer is left out."
+    return "Using the default."
 
 
 def _engine_rejects(units: str, accepted: dict, name: str, number: float):
@@ -222,3 +409,6 @@ def _shown(raw: str) -> str:
     """`raw` quoted for a message, shortened when long (plain text: escape to show)."""
     text = raw if len(raw) <= _MAX_SHOWN else raw[:_MAX_SHOWN] + "…"
     return repr(text)
+
+
+INPUT_FIELDS = tuple(f.name for f in fields(Inputs))
