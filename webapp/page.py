@@ -11,6 +11,8 @@ that happens only after the first render).
 from __future__ import annotations
 
 import math
+from dataclasses import replace
+from html import escape
 
 import panel as pn
 import param
@@ -18,9 +20,11 @@ import param
 import engine
 
 from . import summary
+from .design_view import SizeBarsView, design_kwargs, matching_option
 from .plot import CapacityPlot, LimitSweepPlot
-from .state import (DEFAULTS, NUMBER_FIELDS, SLIDER_SPANS, Inputs, convert_inputs,
-                    default_inputs, parse_query, unit_label)
+from .sketch import SectionSketch, section_drawing
+from .state import (DEFAULTS, INPUT_FIELDS, NUMBER_FIELDS, SECTION_DEFAULTS, SLIDER_SPANS,
+                    Inputs, convert_inputs, default_inputs, parse_query, unit_label)
 from .theme import SIDEBAR_CSS, TEXT_CSS
 
 SLIDER_FIELDS = ("fc", "fy", "b", "d", "As")
@@ -28,6 +32,14 @@ LABELS = {"fc": "f'c, concrete strength", "fy": "fy, steel yield strength",
           "b": "b, web width", "d": "d, depth to tension steel", "As": "As, tension steel area",
           "Mu": "Mu, factored moment (blank: none)"}
 UNIT_OPTIONS = {"US customary": "us", "SI": "si"}
+SHAPE_OPTIONS = {"Rectangle": "rect", "T-beam": "T", "L-beam": "L"}
+FLANGE_SOURCES = {"bf given": "direct", "from the slab": "slab"}
+# Optional typed inputs of the section card: (field, label); blank means none.
+SECTION_ENTRIES = (("h", "h, overall depth"), ("dt", "dt, depth to extreme tension layer"),
+                   ("bf", "bf, flange width"), ("hf", "hf, flange thickness"),
+                   ("sw", "clear distance to next web"), ("ln", "ln, clear span"),
+                   ("asc", "A's, compression steel"), ("dc", "d', depth to A's"))
+OTHER_FIELDS = tuple(f for f in INPUT_FIELDS if f not in ("units",) + NUMBER_FIELDS)
 _AS_PAST_BALANCED = 1.6  # the As slider runs to 1.6 As,b of the current section
 
 COPY_JS = """
@@ -61,6 +73,23 @@ class BeamCheckPage(pn.viewable.Viewer):
     As = param.Number(default=DEFAULTS["us"]["As"], doc="As in in² or mm²")
     Mu = param.Number(default=DEFAULTS["us"]["Mu"], allow_None=True,
                       doc="Mu in kip·ft or kN·m; None for none")
+    dt = param.Number(default=None, allow_None=True, doc="dt; None: the deepest layer")
+    h = param.Number(default=None, allow_None=True, doc="overall depth h; None: not given")
+    shape = param.Selector(objects=["rect", "T", "L"], default="rect")
+    bf = param.Number(default=None, allow_None=True, doc="flange width bf")
+    hf = param.Number(default=None, allow_None=True, doc="flange thickness hf")
+    sw = param.Number(default=None, allow_None=True, doc="clear distance to the next web")
+    ln = param.Number(default=None, allow_None=True, doc="clear span, for bf (Table 6.3.2.1)")
+    asc = param.Number(default=None, allow_None=True, doc="compression steel A's")
+    dc = param.Number(default=None, allow_None=True, doc="depth d' of A's")
+    layers = param.Parameter(default=(), doc="extra tension layers, a tuple of (area, depth)")
+    cover = param.Number(default=None, allow_None=True, doc="clear cover to the stirrup")
+    stirrup = param.String(default=None, allow_None=True)
+    agg = param.Number(default=None, allow_None=True)
+    nlayers = param.Integer(default=None, allow_None=True)
+    span = param.Number(default=None, allow_None=True)
+    support = param.String(default=None, allow_None=True)
+    bars = param.String(default=None, allow_None=True, doc="chosen arrangement, e.g. #8:4,2")
     link_messages = param.List(default=[], doc="problems with the opened link's values")
 
     def __init__(self, **params) -> None:
@@ -101,16 +130,24 @@ class BeamCheckPage(pn.viewable.Viewer):
                                   margin=(4, 8))
         self.details = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
                                     margin=(4, 12))
+        self._build_section_widgets()
         self.capacity_plot = CapacityPlot()
         self.sweep_plot = LimitSweepPlot()
+        self.sketch = SectionSketch()
+        self.sketch_note = pn.pane.HTML("", stylesheets=[TEXT_CSS], width=300, margin=(0, 8))
+        self.size_bars = SizeBarsView(self)
         # The results area: the check's own tab first; other views add theirs (add_view).
         self.views = pn.Tabs(
             ("Check", pn.Column(
                 pn.Row(pn.pane.Bokeh(self.capacity_plot.figure, sizing_mode="stretch_width",
                                      min_width=380),
-                       pn.pane.Bokeh(self.sweep_plot.figure, width=320),
+                       pn.Column(pn.pane.Bokeh(self.sketch.figure, width=300),
+                                 self.sketch_note, width=310),
                        sizing_mode="stretch_width"),
-                self.details, sizing_mode="stretch_width")),
+                pn.Row(pn.pane.Bokeh(self.sweep_plot.figure, width=320), self.details,
+                       sizing_mode="stretch_width"),
+                sizing_mode="stretch_width")),
+            ("Size the bars", self.size_bars.__panel__()),
             dynamic=False, sizing_mode="stretch_width", margin=(0, 0))
         self._set_spans(self.units, self.inputs())
         location = pn.state.location
@@ -123,9 +160,23 @@ class BeamCheckPage(pn.viewable.Viewer):
     # -- state -----------------------------------------------------------
 
     def inputs(self) -> Inputs:
-        """The current inputs."""
+        """The current inputs (bf found from the slab when sw and ln are set)."""
+        values = {name: getattr(self, name) for name in OTHER_FIELDS}
+        values["layers"] = tuple(tuple(layer) for layer in self.layers)
+        if self.shape in ("T", "L") and None not in (self.sw, self.ln, self.hf):
+            try:
+                values["bf"] = engine.effective_flange_width(self.shape, self.b, self.hf,
+                                                             self.sw, self.ln)
+            except engine.InputError:
+                pass  # the previous bf stays; `_redraw` shows the message
         return Inputs(units=self.units, fc=self.fc, fy=self.fy, b=self.b, d=self.d,
-                      As=self.As, Mu=self.Mu)
+                      As=self.As, Mu=self.Mu, **values)
+
+    def set_inputs(self, **changes) -> None:
+        """Change some inputs (Inputs field names), check, and write the link once."""
+        self._switch_memo = None
+        self.apply(replace(self.inputs(), **changes))
+        self._write_link()
 
     def apply(self, inputs: Inputs) -> None:
         """Show and check `inputs` (values used exactly; slider spans widen to fit)."""
@@ -137,7 +188,8 @@ class BeamCheckPage(pn.viewable.Viewer):
                 self.sliders[name].label = self._label(name, inputs.units)
             self.mu_input.label = self._label("Mu", inputs.units)
             self.param.update(**{"units": inputs.units,
-                                 **{name: getattr(inputs, name) for name in NUMBER_FIELDS}})
+                                 **{name: getattr(inputs, name) for name in NUMBER_FIELDS},
+                                 **{name: getattr(inputs, name) for name in OTHER_FIELDS}})
         finally:
             self._applying = False
 
@@ -238,7 +290,7 @@ class BeamCheckPage(pn.viewable.Viewer):
 
     # -- params -> widgets and views -------------------------------------
 
-    @param.depends("fc", "fy", "b", "d", "As", "Mu", "units", watch=True)
+    @param.depends("fc", "fy", "b", "d", "As", "Mu", "units", *OTHER_FIELDS, watch=True)
     def _refresh(self) -> None:
         # One document message per update instead of one per changed property.
         with pn.io.hold():
@@ -256,6 +308,8 @@ class BeamCheckPage(pn.viewable.Viewer):
         if self.mu_input.value != self.Mu:
             self.mu_input.value = self.Mu
         inputs = self.inputs()
+        self._sync_section_widgets(inputs)
+        self.flange_note.object = self._flange_note(inputs)
         try:
             result = engine.check(**inputs.engine_kwargs())
             curve = self._curve(inputs, result)
@@ -273,6 +327,178 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.capacity_plot.update(curve, result)
         fc_slider = self.sliders["fc"]
         self.sweep_plot.update(result, (fc_slider.start, fc_slider.end), inputs.section_kwargs())
+        self.size_bars.update(inputs)
+        option = matching_option(self.size_bars.result, inputs)
+        if option is None and inputs.bars is not None:
+            with param.discard_events(self):
+                self.bars = None  # the bars were edited away from the chosen arrangement
+            inputs = replace(inputs, bars=None)
+        self._draw_sketch(inputs, result, option)
+
+    def _draw_sketch(self, inputs: Inputs, result, option) -> None:
+        if option is not None:
+            section = self.size_bars.result.section
+            drawing = section_drawing(inputs, result, option.arrangement, section.stirrup,
+                                      section.cover)
+        else:
+            drawing = section_drawing(inputs, result)
+        self.sketch.update(drawing, inputs.units)
+        self.sketch_note.object = (f'<div class="rs-note" data-q="sketch_note">'
+                                   f'{escape(drawing.note)}</div>')
+
+    # -- section inputs --------------------------------------------------
+
+    def _build_section_widgets(self) -> None:
+        self.shape_switch = pn.widgets.RadioButtonGroup(
+            options=SHAPE_OPTIONS, value=self.shape, color="primary",
+            variant="outline", sizing_mode="stretch_width", css_classes=["rs-input-shape"])
+        self.shape_switch.param.watch(self._on_shape, "value")
+        self.flange_source = pn.widgets.RadioButtonGroup(
+            options=FLANGE_SOURCES, value="direct", 
+            sizing_mode="stretch_width", css_classes=["rs-input-flange-source"])
+        self.flange_source.param.watch(self._on_flange_source, "value")
+        self.entries: dict[str, pn.widgets.FloatInput] = {}
+        for name, label in SECTION_ENTRIES:
+            entry = pn.widgets.FloatInput(label=label, value=None, start=0.0,
+                                          placeholder="none", format="0[.][0000]",
+                                          sizing_mode="stretch_width",
+                                          css_classes=[f"rs-input-{name}"])
+            entry.param.watch(lambda event, name=name: self._on_entry(name, event.new), "value")
+            self.entries[name] = entry
+        self.flange_note = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
+                                        margin=(0, 10))
+        self.layer_rows = pn.Column(sizing_mode="stretch_width", margin=0)
+        self.add_layer_button = pn.widgets.Button(label="Add a tension layer", icon="plus",
+                                                  
+                                                  sizing_mode="stretch_width",
+                                                  css_classes=["rs-add-layer"])
+        self.add_layer_button.on_click(lambda event: self._add_layer())
+        self._shown_layers: tuple = ()
+        self.flange_box = pn.Column(
+            self.flange_source, pn.Row(self.entries["bf"], self.entries["hf"]),
+            pn.Row(self.entries["sw"], self.entries["ln"]), self.flange_note,
+            sizing_mode="stretch_width", margin=0, visible=False)
+        self.section_card = pn.Card(
+            self.shape_switch, self.flange_box,
+            pn.Row(self.entries["h"], self.entries["dt"]),
+            pn.Row(self.entries["asc"], self.entries["dc"]),
+            pn.pane.HTML('<div class="rs-note">Tension layers. The As and d sliders set the '
+                         'first layer; each extra layer keeps the area and depth typed here '
+                         '(As in the results is their total, d their centroid).</div>',
+                         stylesheets=[TEXT_CSS], margin=(0, 10)),
+            self.layer_rows, self.add_layer_button,
+            title="Section shape, A's and layers", collapsed=False,
+            sizing_mode="stretch_width", margin=(4, 6), css_classes=["rs-section-card"])
+
+    def _label_entries(self, units: str) -> None:
+        for name, label in SECTION_ENTRIES:
+            self.entries[name].label = f"{label} ({unit_label(units, name)})"
+
+    def _on_entry(self, name: str, value) -> None:
+        if self._applying:
+            return
+        self.set_inputs(**{name: None if value is None else float(value)})
+
+    def _on_shape(self, event) -> None:
+        if self._applying or event.new == self.shape:
+            return
+        changes = {"shape": event.new}
+        base = SECTION_DEFAULTS[self.units]
+        if event.new != "rect":
+            if self.hf is None:
+                changes["hf"] = base["hf"]
+            if self.bf is None:
+                changes["bf"] = max(self.b, base["bf"])
+        self.set_inputs(**changes)
+
+    def _on_flange_source(self, event) -> None:
+        if self._applying:
+            return
+        base = SECTION_DEFAULTS[self.units]
+        if event.new == "slab":
+            self.set_inputs(sw=self.sw or base["sw"], ln=self.ln or base["ln"])
+        else:
+            self.set_inputs(sw=None, ln=None, bf=self.inputs().bf)
+
+    def _add_layer(self) -> None:
+        depths = [self.d] + [depth for _, depth in self.layers]
+        spacing = 2.5 if self.units == "us" else 63.0  # common practice: a layer 2.5 in up
+        new = (float(f"{0.5 * self.As:.4g}"), max(min(depths) - spacing, 0.5 * min(depths)))
+        self.set_inputs(layers=tuple(self.layers) + (new,), bars=None)
+
+    def _remove_layer(self, index: int) -> None:
+        layers = list(self.layers)
+        del layers[index]
+        self.set_inputs(layers=tuple(layers), bars=None)
+
+    def _edit_layer(self, index: int, part: int, value) -> None:
+        if self._applying or value is None:
+            return
+        layers = [list(layer) for layer in self.layers]
+        layers[index][part] = float(value)
+        self.set_inputs(layers=tuple(tuple(layer) for layer in layers), bars=None)
+
+    def _sync_section_widgets(self, inputs: Inputs) -> None:
+        self._applying = True
+        try:
+            self.shape_switch.value = inputs.shape
+            slab = inputs.sw is not None and inputs.ln is not None
+            self.flange_source.value = "slab" if slab else "direct"
+            self.flange_box.visible = inputs.shape != "rect"
+            for name in self.entries:
+                value = getattr(inputs, name)
+                if self.entries[name].value != value:
+                    self.entries[name].value = value
+            self.entries["bf"].disabled = slab
+            self.entries["sw"].visible = self.entries["ln"].visible = slab
+            self._label_entries(inputs.units)
+            if inputs.layers != self._shown_layers or len(self.layer_rows) != len(inputs.layers) + 1:
+                self._shown_layers = inputs.layers
+                self.layer_rows.objects = self._layer_row_widgets(inputs)
+            else:
+                first = self.layer_rows.objects[0]
+                first.object = self._first_layer_text(inputs)
+        finally:
+            self._applying = False
+
+    def _first_layer_text(self, inputs: Inputs) -> str:
+        system = engine.unit_system(inputs.units)
+        return (f'<div class="rs-note" data-q="layer_1">1: As = {summary.fmt(inputs.As)} '
+                f'{escape(system.area)} at d = {summary.fmt(inputs.d)} '
+                f'{escape(system.length)} (sliders)</div>')
+
+    def _layer_row_widgets(self, inputs: Inputs) -> list:
+        rows = [pn.pane.HTML(self._first_layer_text(inputs), stylesheets=[TEXT_CSS],
+                             margin=(0, 10))]
+        area_unit, length_unit = unit_label(inputs.units, "As"), unit_label(inputs.units, "d")
+        for index, (area, depth) in enumerate(inputs.layers):
+            area_box = pn.widgets.FloatInput(label=f"{index + 2}: area ({area_unit})", value=area,
+                                             start=0.0, format="0[.][0000]", width=110,
+                                             css_classes=[f"rs-layer-{index + 2}-area"])
+            depth_box = pn.widgets.FloatInput(label=f"depth ({length_unit})", value=depth,
+                                              start=0.0, format="0[.][0000]", width=110,
+                                              css_classes=[f"rs-layer-{index + 2}-depth"])
+            area_box.param.watch(lambda e, i=index: self._edit_layer(i, 0, e.new), "value")
+            depth_box.param.watch(lambda e, i=index: self._edit_layer(i, 1, e.new), "value")
+            remove = pn.widgets.Button(label="✕", width=36, align="end",
+                                       description="remove this layer",
+                                       css_classes=[f"rs-layer-{index + 2}-remove"])
+            remove.on_click(lambda event, i=index: self._remove_layer(i))
+            rows.append(pn.Row(area_box, depth_box, remove, margin=0))
+        return rows
+
+    def _flange_note(self, inputs: Inputs) -> str:
+        if inputs.shape == "rect" or inputs.sw is None or inputs.ln is None:
+            return ""
+        system = engine.unit_system(inputs.units)
+        try:
+            bf = engine.effective_flange_width(inputs.shape, inputs.b, inputs.hf, inputs.sw,
+                                               inputs.ln)
+        except engine.InputError as error:
+            return summary.messages_html([str(error)])
+        return (f'<div class="rs-note">bf = <span data-q="bf_slab">{summary.fmt(bf)}</span> '
+                f'{escape(system.length)} from ACI 318-19 Table 6.3.2.1 '
+                f'({"T: each overhang the least of 8hf, sw/2, ln/8" if inputs.shape == "T" else "L: the overhang the least of 6hf, sw/2, ln/12"})</div>')
 
     def _curve(self, inputs: Inputs, result: engine.FlexuralCheck) -> engine.CapacityCurve:
         """The capacity curve, recomputed only when more than As changed.
@@ -281,7 +507,9 @@ class BeamCheckPage(pn.viewable.Viewer):
         the As slider reuses it (and sends no new curve data to the browser)
         as long as the section's ρ stays within it.
         """
-        key = tuple(v for k, v in inputs.section_kwargs().items() if k != "As")
+        kwargs = inputs.section_kwargs()
+        # With several layers As is one of them, so it shapes the curve too.
+        key = tuple((k, v) for k, v in kwargs.items() if k != "As" or "layers" in kwargs)
         cached = self._cached_curve
         if cached is not None and cached[0] == key and result.rho <= cached[1].rho[-1]:
             return cached[1]
@@ -316,6 +544,7 @@ class BeamCheckPage(pn.viewable.Viewer):
             self.unit_switch,
             *self.sliders.values(),
             self.mu_input,
+            self.section_card,
             self.input_pane,
             self.copy_button,
             self.link_pane,

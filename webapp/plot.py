@@ -235,7 +235,7 @@ class LimitSweepPlot:
                section: dict) -> None:
         """Sweep f'c over `fc_span` with the other inputs of `section` (engine kwargs)."""
         units = section["units"]
-        key = (units, section["fy"], section["b"], section["d"], fc_span)
+        key = (tuple((k, v) for k, v in section.items() if k != "fc"), fc_span)
         if key != self._key:
             self._key = key
             self.source.data = sweep_limits(section, fc_span)

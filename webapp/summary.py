@@ -56,7 +56,7 @@ def header_html() -> str:
     """The title bar and the caution, always at the top of the page."""
     return (
         '<div class="rs-head"><span class="rs-title">Rhoscope</span>'
-        '<span class="rs-sub">rectangular beam, flexure, ACI 318-19 · tension steel ratio ρ '
+        '<span class="rs-sub">beam section in flexure, ACI 318-19 · tension steel ratio ρ '
         'against its code limits</span></div>'
         f'<div class="rs-caution" data-q="caution"><b>Caution.</b> {escape(engine.CAUTION)}</div>'
     )

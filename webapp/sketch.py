@@ -1,0 +1,204 @@
+"""The cross-section drawn to scale: outline, stirrup, cover, bars, compression block, c.
+
+`SectionSketch` keeps one Bokeh figure with equal scales on both axes
+(`match_aspect`) and updates it by replacing data-source columns. Positions
+come from the engine: the check's a and c, the layers' depths, and, when a
+bar arrangement was chosen in "Size the bars", `engine.arrange`'s real bar
+positions. Otherwise each layer is drawn as evenly spaced bars of a nominal
+size (marked as schematic). No formula of the check is repeated here; the
+drawing only places what the engine computed.
+
+Coordinates: x across the section from the web's left face, y up from the
+bottom face, in the section's length unit.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from bokeh.models import ColumnDataSource, DataRange1d, Label
+from bokeh.plotting import figure
+
+import engine
+
+from .theme import BRONZE, CORAL, FONT, INK, MUTED, TEAL
+
+# Drawing allowances when the inputs do not say (common practice): h = dt + 2.5 in
+# (63 mm) when h is not given; cover 1.5 in (38 mm) to a #3 (No. 10) stirrup.
+_BELOW_DT = {"us": 2.5, "si": 63.0}
+_NOMINAL = {"us": ("#3", 1.5, "#8"), "si": ("10", 38.0, "25")}
+
+
+@dataclass(frozen=True)
+class Drawing:
+    """What the sketch shows, in the section's length unit (y up from the bottom)."""
+
+    outline_x: list
+    outline_y: list
+    block_x: list
+    block_y: list
+    stirrup: tuple[float, float, float, float, float]  # left, right, bottom, top, thickness
+    bars: dict  # x, y, r, kind ("tension" or "compression")
+    c: float
+    a: float
+    h: float
+    width: float
+    schematic: bool
+    note: str
+
+
+def section_drawing(inputs, result: engine.FlexuralCheck, arrangement=None,
+                    stirrup_bar=None, cover: float | None = None) -> Drawing:
+    """The drawing of `inputs` (webapp Inputs) checked as `result`.
+
+    `arrangement` (an `engine.Arrangement`) places the tension bars where
+    `engine.arrange` put them; without it the layers are schematic.
+    """
+    units = inputs.units
+    system = engine.unit_system(units)
+    r = result.to_dict()
+    layers = [(inputs.As, inputs.d)] + list(inputs.layers)
+    dt = r.get("dt") or max(depth for _, depth in layers)
+    if inputs.dt is not None:
+        dt = max(dt, inputs.dt)
+    h = inputs.h if inputs.h is not None else dt + _BELOW_DT[units]
+    stirrup_name, cover_default, bar_name = _NOMINAL[units]
+    stirrup_bar = stirrup_bar or engine.bar("stirrup", inputs.stirrup or stirrup_name, system)
+    cover = cover if cover is not None else (inputs.cover or cover_default)
+    bw = inputs.b
+    bf = inputs.bf if inputs.flanged else bw
+    hf = inputs.hf if inputs.flanged else 0.0
+    if inputs.flanged and inputs.shape == "T":
+        left, right = -(bf - bw) / 2, bw + (bf - bw) / 2
+    else:
+        left, right = 0.0, bf  # an L's flange runs to one side (the slab's)
+    if inputs.flanged:
+        xs = [0, bw, bw, right, right, left, left, 0]
+        ys = [0, 0, h - hf, h - hf, h, h, h - hf, h - hf]
+    else:
+        xs, ys = [0, bw, bw, 0], [0, 0, h, h]
+    a = min(r["a"], h)
+    if inputs.flanged and a > hf:
+        bx = [0, bw, bw, right, right, left, left, 0]
+        by = [h - a, h - a, h - hf, h - hf, h, h, h - hf, h - hf]
+    else:
+        bx = [left, right, right, left]
+        by = [h - a, h - a, h, h]
+    inner = cover + stirrup_bar.db / 2
+    stirrup = (inner, bw - inner, inner, h - inner, stirrup_bar.db)
+    bars = {"x": [], "y": [], "r": [], "kind": []}
+    schematic = arrangement is None
+    if arrangement is not None:
+        side = cover + stirrup_bar.db
+        for count, depth in zip(arrangement.per_layer, arrangement.layer_depths):
+            _row(bars, count, arrangement.bar.db, side, bw - side, h - depth, "tension")
+    else:
+        nominal = engine.bar("bar", bar_name, system)
+        side = cover + stirrup_bar.db
+        for area, depth in layers:
+            count, db = _schematic_bars(area, nominal, bw - 2 * side, system)
+            _row(bars, count, db, side, bw - side, h - depth, "tension")
+    if inputs.asc is not None and inputs.dc is not None:
+        count, db = _schematic_bars(inputs.asc, engine.bar("bar", _NOMINAL[units][2], system),
+                                    bw - 2 * (cover + stirrup_bar.db), system)
+        _row(bars, count, db, cover + stirrup_bar.db, bw - cover - stirrup_bar.db,
+             h - inputs.dc, "compression")
+    L = system.length
+    if schematic:
+        note = (f"Bars schematic: each layer drawn as evenly spaced bars of its area. "
+                f"Cover {cover:g} {L} to a {stirrup_bar.designation} stirrup assumed.")
+    else:
+        note = (f"Bars as arranged: {arrangement.count} {arrangement.bar.designation}, "
+                f"cover {cover:g} {L}, {stirrup_bar.designation} stirrup.")
+    if inputs.h is None:
+        note += f" h not given: drawn {_BELOW_DT[units]:g} {L} below dt."
+    return Drawing(outline_x=xs, outline_y=ys, block_x=bx, block_y=by, stirrup=stirrup,
+                   bars=bars, c=r["c"], a=a, h=h, width=right - left, schematic=schematic,
+                   note=note)
+
+
+def _schematic_bars(area: float, nominal, room: float, system) -> tuple[int, float]:
+    """A count of equal bars for `area`: the nominal size, or the size that fits `room`."""
+    for candidate in [nominal] + [b for b in engine.standard_bars(system) if b.area > nominal.area]:
+        count = max(2, round(area / candidate.area))
+        if count * candidate.db * 2 <= room or candidate is engine.standard_bars(system)[-1]:
+            return count, candidate.db
+    return 2, nominal.db
+
+
+def _row(bars: dict, count: int, db: float, x0: float, x1: float, y: float, kind: str) -> None:
+    """`count` bars of diameter `db` spread between faces x0 and x1 at height y."""
+    first, last = x0 + db / 2, x1 - db / 2
+    step = (last - first) / (count - 1) if count > 1 else 0.0
+    for i in range(count):
+        bars["x"].append(first + i * step if count > 1 else (x0 + x1) / 2)
+        bars["y"].append(y)
+        bars["r"].append(db / 2)
+        bars["kind"].append(kind)
+
+
+class SectionSketch:
+    """One Bokeh figure of the section, to scale; `update` replaces its data only."""
+
+    def __init__(self) -> None:
+        self.outline = ColumnDataSource(data=dict(x=[], y=[]), name="sketch-outline")
+        self.block = ColumnDataSource(data=dict(x=[], y=[]), name="sketch-block")
+        self.stirrup = ColumnDataSource(data=dict(left=[], right=[], bottom=[], top=[],
+                                                  width=[]), name="sketch-stirrup")
+        self.bars = ColumnDataSource(data=dict(x=[], y=[], r=[], kind=[], color=[]),
+                                     name="sketch-bars")
+        self.axis = ColumnDataSource(data=dict(x0=[], x1=[], y=[]), name="sketch-axis")
+        fig = figure(width=300, height=390, match_aspect=True, tools="pan,wheel_zoom,reset",
+                     title="Section to scale", x_range=DataRange1d(range_padding=0.12),
+                     y_range=DataRange1d(range_padding=0.12), name="sketch")
+        fig.toolbar.logo = None
+        fig.toolbar.autohide = True
+        fig.axis.visible = False
+        fig.grid.visible = False
+        fig.outline_line_color = None
+        fig.title.text_font = FONT
+        fig.title.text_font_size = "14px"
+        fig.title.text_color = INK
+        fig.patch("x", "y", source=self.outline, fill_color="#e9e6df", line_color=INK,
+                  line_width=2)
+        fig.patch("x", "y", source=self.block, fill_color=TEAL, fill_alpha=0.28,
+                  hatch_pattern="/", hatch_color=TEAL, hatch_alpha=0.5, line_color=TEAL,
+                  line_width=1)
+        fig.quad(left="left", right="right", bottom="bottom", top="top", source=self.stirrup,
+                 fill_color=None, line_color=MUTED, line_width=2, line_dash=[4, 2])
+        fig.segment(x0="x0", x1="x1", y0="y", y1="y", source=self.axis, line_color=CORAL,
+                    line_width=2, line_dash="dashed")
+        fig.circle(x="x", y="y", radius="r", source=self.bars, fill_color="color",
+                   line_color=INK, line_width=1)
+        self.c_label = Label(x=0, y=0, text="", text_font_size="11.5px", text_color=CORAL,
+                             x_offset=4, y_offset=2, background_fill_color="#ffffff",
+                             background_fill_alpha=0.8)
+        self.a_label = Label(x=0, y=0, text="", text_font_size="11.5px", text_color=TEAL,
+                             x_offset=4, y_offset=-14, background_fill_color="#ffffff",
+                             background_fill_alpha=0.8)
+        self.size_label = Label(x=0, y=0, text="", text_font_size="11.5px", text_color=INK,
+                                y_offset=-18, text_align="center")
+        for label in (self.c_label, self.a_label, self.size_label):
+            fig.add_layout(label)
+        self.figure = fig
+        self.drawing: Drawing | None = None
+
+    def update(self, drawing: Drawing, units: str) -> None:
+        """Show `drawing` by replacing the sources' data in place."""
+        self.drawing = drawing
+        L = engine.unit_system(units).length
+        self.outline.data = dict(x=drawing.outline_x, y=drawing.outline_y)
+        self.block.data = dict(x=drawing.block_x, y=drawing.block_y)
+        left, right, bottom, top, width = drawing.stirrup
+        self.stirrup.data = dict(left=[left], right=[right], bottom=[bottom], top=[top],
+                                 width=[width])
+        colors = [BRONZE if kind == "tension" else "#5b4b8a" for kind in drawing.bars["kind"]]
+        self.bars.data = dict(**drawing.bars, color=colors)
+        x0, x1 = min(drawing.outline_x), max(drawing.outline_x)
+        c_y = drawing.h - drawing.c
+        self.axis.data = dict(x0=[x0 - 0.04 * drawing.width], x1=[x1 + 0.04 * drawing.width],
+                              y=[c_y])
+        self.c_label.update(x=x1, y=c_y, text=f"c = {drawing.c:.3g} {L} (neutral axis)")
+        self.a_label.update(x=x1, y=drawing.h - drawing.a,
+                            text=f"a = {drawing.a:.3g} {L} (0.85 f'c block)")
+        self.size_label.update(x=(x0 + x1) / 2, y=0, text=f"h = {drawing.h:.4g} {L}")
