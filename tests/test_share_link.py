@@ -150,3 +150,63 @@ def test_keys_are_the_check_keywords():
     keywords = set(inspect.signature(beam_section).parameters) | {"Mu"}
     assert set(CHECK_KEYS) == keywords
     assert set(KEYS) == (keywords - {"layers"}) | {"layer"} | set(PAGE_KEYS)
+
+
+layer = st.tuples(positive, positive)
+
+
+@given(h=st.none() | positive, bf=st.none() | positive, hf=st.none() | positive,
+       asc=st.none() | positive, dc=st.none() | positive, layers=st.lists(layer, max_size=4),
+       shape=st.none() | st.sampled_from(["rect", "T", "L"]), sw=st.none() | positive,
+       cover=st.none() | positive, stirrup=st.none() | st.sampled_from(["#3", "#4", "10"]),
+       nlayers=st.none() | st.sampled_from([1, 2]),
+       support=st.none() | st.sampled_from(["simple", "one-end", "both-ends", "cantilever"]),
+       bars=st.none() | st.sampled_from(["#8:4", "#5:5,2", "25:3,3"]))
+def test_new_keys_round_trip_exactly(h, bf, hf, asc, dc, layers, shape, sw, cover, stirrup,
+                                     nlayers, support, bars):
+    inputs = {**B101, "h": h, "bf": bf, "hf": hf, "asc": asc, "dc": dc, "layers": layers}
+    settings = dict(shape=shape, sw=sw, cover=cover, stirrup=stirrup, nlayers=nlayers,
+                    support=support, bars=bars)
+    url = share_url("https://example.org/rhoscope/", inputs, settings)
+    # Python's own parser sees one `layer` per layer, written AREA@DEPTH (the CLI's form).
+    pairs = parse_qsl(urlsplit(url).query, strict_parsing=True)
+    assert [v for k, v in pairs if k == "layer"] == [
+        f"{format_number(a)}@{format_number(d)}" for a, d in layers]
+    back = parse_share_query(url)
+    expected = {k: v for k, v in inputs.items() if v is not None and v != []}
+    assert {k: (list(v) if k == "layers" else v) for k, v in back.items()} == {
+        k: ([tuple(x) for x in v] if k == "layers" else v) for k, v in expected.items()}
+    reading = read_share_query(url)
+    assert reading.problems == () and reading.repeated == {}
+    assert {k: reading.values.get(k) for k in settings} == settings
+
+
+@pytest.mark.parametrize("key, text", [
+    pytest.param("shape", "<b>T</b>", id="shape-markup"),
+    pytest.param("layer", "1.58", id="layer-without-depth"),
+    pytest.param("layer", "1.58@nan", id="layer-nan"),
+    pytest.param("nlayers", "3", id="three-layers"),
+    pytest.param("bars", "#8:four", id="bars-words"),
+    pytest.param("stirrup", "#3;drop", id="stirrup-junk"),
+    pytest.param("support", "fixed", id="support-unknown"),
+    pytest.param("h", "1e400", id="h-overflows"),
+])
+def test_bad_new_values_are_named_never_raised_by_the_reader(key, text):
+    from urllib.parse import quote
+    reading = read_share_query(f"units=us&{key}={quote(text)}&fc=5000")
+    assert reading.values["fc"] == 5000.0 and key not in reading.values
+    assert len(reading.problems) == 1 and reading.problems[0].field.startswith(key)
+    with pytest.raises(engine.InputError, match=f"^{key}"):
+        parse_share_query(f"units=us&{key}={quote(text)}")
+
+
+def test_blank_mu_is_no_demand_both_ways():
+    assert "Mu=&" in share_query({**B101, "Mu": None}) + "&"
+    assert parse_share_query("units=us&Mu=") == {"units": "us", "Mu": None}
+
+
+def test_cli_style_link_of_layers_checks_as_the_cli():
+    # `--layer 1.58@21.5 --layer 0.62@19` (issue 5's CLI form) as a link.
+    back = parse_share_query("units=us&fc=4000&fy=60000&b=12&layer=1.58@21.5&layer=0.62@19")
+    assert back["layers"] == [(1.58, 21.5), (0.62, 19.0)]
+    engine.check(**back)

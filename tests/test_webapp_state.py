@@ -196,3 +196,40 @@ def test_any_values_under_real_keys_are_checkable_and_shown_as_text(pairs):
     # Only the app's own boxes are tags; nothing from the link became markup.
     assert {tag for tag, _ in tags(markup)} <= {"div"}
     assert all(set(attrs) <= {"class", "data-q"} for _, attrs in tags(markup))
+
+
+def _flanged_inputs(units: str):
+    def build(b, d, share, widen, thick, extra, comp):
+        As = share * b * d
+        layers = ((extra * As, 0.8 * d),) if extra else ()
+        asc, dc = (comp * As, 0.1 * d) if comp else (None, None)
+        return Inputs(units=units, fc=DEFAULTS[units]["fc"], fy=DEFAULTS[units]["fy"], b=b,
+                      d=d, As=As, Mu=None, h=1.1 * d, shape="T", bf=widen * b,
+                      hf=thick * d, asc=asc, dc=dc, layers=layers)
+    size = st.floats(min_value=5.0, max_value=140.0, allow_nan=False)  # bf = 8 b stays in range
+    return st.builds(build, size, size, st.floats(min_value=1e-3, max_value=0.04),
+                     st.floats(min_value=1.0, max_value=8.0),
+                     st.floats(min_value=0.05, max_value=0.5),
+                     st.none() | st.floats(min_value=0.1, max_value=1.0),
+                     st.none() | st.floats(min_value=0.05, max_value=0.5))
+
+
+@settings(max_examples=150, deadline=None)
+@given(st.sampled_from(["us", "si"]).flatmap(_flanged_inputs))
+def test_any_flanged_doubly_reinforced_layered_state_survives_the_link(inputs):
+    # T-beams with A's and a second layer (issue 5): the link is exact, hence ==.
+    engine.check(**inputs.engine_kwargs())
+    assert parse_query(inputs.to_query()) == (inputs, ())
+
+
+@pytest.mark.parametrize("field", ["h", "dt", "bf", "hf", "asc", "dc", "sw", "ln", "cover",
+                                   "agg", "span"])
+@pytest.mark.parametrize("value", ["<script>alert(1)</script>", "nan", "1e400", "-5", "４"])
+def test_hostile_new_value_is_named_and_the_rest_checks(field, value):
+    query = (f"?units=us&shape=T&bf=48&hf=5&h=24&asc=0.4&dc=2.5&sw=96&ln=288&span=288"
+             f"&support=simple&{field}={quote(value)}")
+    inputs, messages = parse_query(query)
+    engine.check(**inputs.engine_kwargs())
+    assert any(m.startswith(f"{field}:") for m in messages), messages
+    markup = summary.messages_html(messages)
+    assert {tag for tag, _ in tags(markup)} <= {"div"}

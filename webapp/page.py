@@ -35,9 +35,9 @@ UNIT_OPTIONS = {"US customary": "us", "SI": "si"}
 SHAPE_OPTIONS = {"Rectangle": "rect", "T-beam": "T", "L-beam": "L"}
 FLANGE_SOURCES = {"bf given": "direct", "from the slab": "slab"}
 # Optional typed inputs of the section card: (field, label); blank means none.
-SECTION_ENTRIES = (("h", "h, overall depth"), ("dt", "dt, depth to extreme tension layer"),
+SECTION_ENTRIES = (("h", "h, overall depth"), ("dt", "dt, extreme layer"),
                    ("bf", "bf, flange width"), ("hf", "hf, flange thickness"),
-                   ("sw", "clear distance to next web"), ("ln", "ln, clear span"),
+                   ("sw", "sw, clear web spacing"), ("ln", "ln, clear span"),
                    ("asc", "A's, compression steel"), ("dc", "d', depth to A's"))
 OTHER_FIELDS = tuple(f for f in INPUT_FIELDS if f not in ("units",) + NUMBER_FIELDS)
 _AS_PAST_BALANCED = 1.6  # the As slider runs to 1.6 As,b of the current section
@@ -343,8 +343,13 @@ class BeamCheckPage(pn.viewable.Viewer):
         else:
             drawing = section_drawing(inputs, result)
         self.sketch.update(drawing, inputs.units)
-        self.sketch_note.object = (f'<div class="rs-note" data-q="sketch_note">'
-                                   f'{escape(drawing.note)}</div>')
+        length = engine.unit_system(inputs.units).length
+        self.sketch_note.object = (
+            f'<div class="rs-note"><span style="color:#0d6b70">▨ compression block</span> '
+            f'a = <span data-q="sketch_a">{summary.fmt(drawing.a)}</span> {escape(length)} · '
+            f'<span style="color:#c8402f">-- neutral axis</span> c = '
+            f'<span data-q="sketch_c">{summary.fmt(drawing.c)}</span> {escape(length)}</div>'
+            f'<div class="rs-note" data-q="sketch_note">{escape(drawing.note)}</div>')
 
     # -- section inputs --------------------------------------------------
 

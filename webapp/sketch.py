@@ -170,16 +170,9 @@ class SectionSketch:
                     line_width=2, line_dash="dashed")
         fig.circle(x="x", y="y", radius="r", source=self.bars, fill_color="color",
                    line_color=INK, line_width=1)
-        self.c_label = Label(x=0, y=0, text="", text_font_size="11.5px", text_color=CORAL,
-                             x_offset=4, y_offset=2, background_fill_color="#ffffff",
-                             background_fill_alpha=0.8)
-        self.a_label = Label(x=0, y=0, text="", text_font_size="11.5px", text_color=TEAL,
-                             x_offset=4, y_offset=-14, background_fill_color="#ffffff",
-                             background_fill_alpha=0.8)
         self.size_label = Label(x=0, y=0, text="", text_font_size="11.5px", text_color=INK,
                                 y_offset=-18, text_align="center")
-        for label in (self.c_label, self.a_label, self.size_label):
-            fig.add_layout(label)
+        fig.add_layout(self.size_label)
         self.figure = fig
         self.drawing: Drawing | None = None
 
@@ -198,7 +191,4 @@ class SectionSketch:
         c_y = drawing.h - drawing.c
         self.axis.data = dict(x0=[x0 - 0.04 * drawing.width], x1=[x1 + 0.04 * drawing.width],
                               y=[c_y])
-        self.c_label.update(x=x1, y=c_y, text=f"c = {drawing.c:.3g} {L} (neutral axis)")
-        self.a_label.update(x=x1, y=drawing.h - drawing.a,
-                            text=f"a = {drawing.a:.3g} {L} (0.85 f'c block)")
         self.size_label.update(x=(x0 + x1) / 2, y=0, text=f"h = {drawing.h:.4g} {L}")

@@ -70,6 +70,10 @@ td.num {{ font-variant-numeric: tabular-nums; white-space: nowrap; }}
 .rs-warn {{ border-left-color: #b8860b; background: #fdf6e3; }}
 .rs-note {{ font-size: 12.5px; color: {MUTED}; }}
 ul {{ margin: 2px 0; padding-left: 18px; }}
+td.pass, td.fail {{ white-space: nowrap; }}
+tr.rs-chosen td {{ background: #e6f2ef; font-weight: 600; }}
+.rs-ok {{ font-size: 13px; padding: 6px 10px; margin: 4px 0; border-radius: 4px;
+  border-left: 5px solid {PASS}; background: #eef7f0; }}
 """
 
 # For the page's own layout elements (inputs column, cards row).

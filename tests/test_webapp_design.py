@@ -1,0 +1,99 @@
+"""'Size the bars': Mu → options → the chosen option sets the check (no browser)."""
+
+from __future__ import annotations
+
+import pytest
+
+import engine
+from webapp.design_view import option_key
+from webapp.page import BeamCheckPage
+from webapp.state import parse_query
+
+from webapp_html import displayed, number
+
+DISPLAY_REL = 5e-4
+
+
+@pytest.fixture
+def page():
+    return BeamCheckPage()
+
+
+def test_options_are_the_engines_best_first(page):
+    view = page.size_bars
+    expected = engine.design_section(units="us", fc=4000, fy=60000, b=14, h=24, Mu=190,
+                                     cover=1.5, stirrup="#3", agg=0.75, layers=2)
+    assert [o.label for o in view.result.options] == [o.label for o in expected.options]
+    shown = displayed(view.table.object)["option_label"]
+    assert shown == [o.label for o in expected.options]
+    assert view.result.options[view.choice.value].ok  # the lightest that works is selected
+    assert "9.7.2.3" in view.detail.object  # the detailing checks of the selected option
+
+
+def test_choosing_an_option_sets_the_check_sketch_and_link(page):
+    view = page.size_bars
+    two_layer = next(i for i, o in enumerate(view.result.options) if o.ok and o.layers == 2)
+    option = view.result.options[two_layer]
+    view.choice.value = two_layer
+    view.use_selected()
+    (As, d), *upper = option.arrangement.steel_layers
+    assert (page.As, page.d, page.layers, page.h) == (As, d, tuple(upper), 24.0)
+    # The check of the same bars, layer by layer (22.2.1.2), equals the option's φMn.
+    expected = engine.check(units="us", fc=4000, fy=60000, b=14, Mu=190, h=24,
+                            layers=list(option.arrangement.steel_layers))
+    assert page.result.phiMn == pytest.approx(expected.phiMn, rel=1e-12)
+    assert page.result.phiMn == pytest.approx(option.phiMn, rel=1e-12)
+    assert number(displayed(page.cards.object)["phiMn"][0]) == pytest.approx(
+        option.phiMn, rel=DISPLAY_REL)
+    # the sketch draws the real bars: count, size and the layer heights from the bottom
+    bars = page.sketch.bars.data
+    assert len(bars["x"]) == option.count
+    assert set(bars["r"]) == {option.bar.db / 2}
+    assert sorted({round(y, 9) for y in bars["y"]}) == sorted(
+        round(24 - depth, 9) for depth in option.arrangement.layer_depths)
+    assert not page.sketch.drawing.schematic
+    # the link names the bars and reopens to the same check and the same drawing
+    assert f"bars={option_key(option).replace('#', '%23')}" in page._written_search
+    other = BeamCheckPage()
+    other.apply_link(page._written_search)
+    assert other.inputs() == page.inputs()
+    assert other.sketch.bars.data["x"] == bars["x"]
+
+
+def test_moving_as_after_choosing_makes_the_bars_schematic(page):
+    view = page.size_bars
+    view.use_selected()
+    assert not page.sketch.drawing.schematic
+    page.sliders["As"].value = 3.5
+    assert page.sketch.drawing.schematic and page.bars is None
+
+
+def test_no_working_option_shows_the_verdict_and_ways_out(page):
+    page.mu_input.value = 2000.0
+    html = page.size_bars.verdict.object
+    assert "No singly reinforced" in html and "deeper section" in html
+    assert displayed(html)["remedies"]
+
+
+def test_design_inputs_travel_in_the_link(page):
+    view = page.size_bars
+    view.cover_input.value = 2.0
+    view.stirrup_input.value = "#4"
+    view.layers_input.value = 1
+    view.span_input.value = 300.0
+    view.support_input.value = "simply supported"
+    query = page._written_search
+    inputs, messages = parse_query(query)
+    assert messages == ()
+    assert (inputs.cover, inputs.stirrup, inputs.nlayers, inputs.span, inputs.support) == (
+        2.0, "#4", 1, 300.0, "simple")
+    assert all(o.layers == 1 for o in view.result.options)
+    # Table 9.3.1.1: simply supported, h ≥ ℓ/16 = 18.75 in for fy = 60,000 psi.
+    assert "Table 9.3.1.1" in view.detail.object and "18.8" in view.detail.object
+
+
+def test_bad_design_value_in_a_link_is_named(page):
+    page.apply_link("?units=us&stirrup=%237&cover=-1")
+    assert any(m.startswith("stirrup:") for m in page.link_messages)
+    assert any(m.startswith("cover:") for m in page.link_messages)
+    assert page.size_bars.result is not None
