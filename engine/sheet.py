@@ -7,11 +7,22 @@ their units, every step as its equation, the equation with the numbers put
 in and the result, each with its ACI 318-19 clause, the checks, the
 warnings, the caution and the share link with its QR code.
 
+It covers every section `engine.check` takes. A singly reinforced rectangle
+with one steel layer is written out in the textbook closed form (a from
+C = T, then c). Any other section (a T or L flange, compression steel,
+several tension layers, an overall depth h) is written out by strain
+compatibility, as the engine solves it: c from the force balance; the block
+over the flange only or over flange and web, with the equation for each
+case; each layer's strain, stress, yield and force (a bar inside the block
+displaces its concrete: (fs − 0.85 f'c)·As); the force balance; Mn as the
+sum of moments about the tension centroid d.
+
 Every number on the sheet is an input or a value of the engine's result,
 formatted; none is computed here another way. The only arithmetic done here
-is for the substituted lines of the limit ratios, which show the neutral
-axis depth and steel stress at each limit strain by the same formulas the
-engine uses (22.2.1.2, 20.2.2.1), so a reviewer can follow them.
+is for the substituted lines: the forces and the limit ratios are shown by
+the engine's own functions (the block of 22.2.2.4.1, each layer's force by
+22.2.1.2 and 20.2.2.1), so a reviewer can follow them and the sums agree
+with the engine's result.
 
 User text is always escaped, never rendered as HTML.
 """
@@ -25,12 +36,17 @@ from collections.abc import Mapping
 from dataclasses import dataclass
 
 from .checks import CAUTION, FlexuralCheck, check
+from .equilibrium import in_block, layer_force
 from .errors import InputError
+from .materials import steel_stress
+from .section import BeamSection, Role
+from .stress_block import block_force, compressed_area
 from .share_link import format_number
 from .units import UnitSystem, unit_system
 
-SHEET_INPUTS = ("units", "fc", "fy", "b", "d", "As", "dt", "es", "Mu", "spiral")
-"""The `engine.check` keywords a sheet covers: a singly reinforced rectangular section."""
+SHEET_INPUTS = ("units", "fc", "fy", "b", "d", "As", "dt", "es", "Mu", "spiral", "h", "bf", "hf",
+                "asc", "dc", "layers")
+"""The `engine.check` keywords a sheet covers: all of them."""
 
 EPS_CU = 0.003  # ACI 318-19 22.2.2.1, written on the sheet
 
@@ -50,7 +66,10 @@ _EPS_T, _EPS_S, _MN = "ε<sub>t</sub>", "ε<sub>s</sub>", "M<sub>n</sub>"
 class SheetStep:
     """One line of the calculation: HTML fragments built only from fixed text and numbers.
 
-    `key` is the name of `value` in `FlexuralCheck.to_dict()`.
+    `key` is the name of `value` in `FlexuralCheck.to_dict()`, or for the
+    general write-up a name of the sheet's own (Ac, y_c, Cc, layer1, balance).
+    `keyed_result` means `result` carries its own `data-key` spans (a layer
+    row shows strain, stress and force); `group` is "strength" or "limits".
     """
 
     key: str
@@ -60,6 +79,8 @@ class SheetStep:
     result: str
     value: float
     clause: str
+    keyed_result: bool = False
+    group: str = "strength"
 
 
 def significant(value: float, digits: int = 4) -> str:
@@ -99,38 +120,20 @@ class _Inputs:
     spiral: bool
 
 
-def _inputs(inputs: Mapping[str, object]) -> _Inputs:
-    """The inputs as the engine used them (dt = d and Es of 20.2.2.2 when not given)."""
-    system = unit_system(inputs["units"])
-    d = float(inputs["d"])  # type: ignore[arg-type]
-    dt, es, Mu = inputs.get("dt"), inputs.get("es"), inputs.get("Mu")
-    return _Inputs(
-        system=system, fc=float(inputs["fc"]), fy=float(inputs["fy"]),  # type: ignore[arg-type]
-        b=float(inputs["b"]), d=d, As=float(inputs["As"]),  # type: ignore[arg-type]
-        dt=d if dt is None else float(dt),  # type: ignore[arg-type]
-        es=system.default_es if es is None else float(es),  # type: ignore[arg-type]
-        Mu=None if Mu is None else float(Mu),  # type: ignore[arg-type]
-        spiral=bool(inputs.get("spiral", False)),
-    )
+def _inputs(inputs: Mapping[str, object], beam: BeamSection) -> _Inputs:
+    """A one-layer rectangle's inputs as the engine used them (dt, Es defaulted)."""
+    layer = beam.layers[0]
+    Mu = inputs.get("Mu")
+    return _Inputs(system=beam.system, fc=beam.fc, fy=beam.fy, b=beam.bw, d=layer.depth,
+                   As=layer.area, dt=beam.dt, es=beam.es,
+                   Mu=None if Mu is None else float(Mu),  # type: ignore[arg-type]
+                   spiral=beam.spiral)
 
 
 def _strength_steps(x: _Inputs, r: dict) -> list[SheetStep]:
     u = x.system
     L, A, S, M = u.length, u.area, u.stress, u.moment
-    steps = []
-    low, high, step = _BETA1_ROWS[u.name]
-    if r["beta1"] == 0.85:
-        eq, sub = f"{_B1} = 0.85 for {_FC} ≤ {low} {S}", f"{_FC} = {_given(x.fc, S)} ≤ {low} {S}"
-    elif r["beta1"] == 0.65:
-        eq, sub = f"{_B1} = 0.65 for {_FC} ≥ {high} {S}", f"{_FC} = {_given(x.fc, S)} ≥ {high} {S}"
-    else:
-        eq = f"{_B1} = 0.85 − 0.05 ({_FC} − {low}) / {step}"
-        sub = f"0.85 − 0.05 × ({_given(x.fc)} − {low}) / {step}"
-    steps.append(SheetStep("beta1", _B1, eq, sub, _q(r["beta1"], digits=3), r["beta1"],
-                           "Table 22.2.2.4.3"))
-    steps.append(SheetStep(
-        "eps_ty", _EPS_TY, f"{_EPS_TY} = {_FY} / {_ES}",
-        f"{_given(x.fy, S)} / {_given(x.es, S)}", _q(r["eps_ty"]), r["eps_ty"], "21.2.2.1"))
+    steps = _common_steps(u, x.fc, x.fy, x.es, r)
     if r["steel_yields"]:
         steps.append(SheetStep(
             "a", "a", f"a = {_AS} {_FY} / (0.85 {_FC} b)",
@@ -164,7 +167,7 @@ def _strength_steps(x: _Inputs, r: dict) -> list[SheetStep]:
             "fs", _FS, f"{_FS} = {_ES} {_EPS_S} when {_EPS_S} &lt; {_EPS_TY}",
             f"{strain} &lt; {_q(r['eps_ty'])}; {_given(x.es, S)} × {_q(r['eps_s'])}",
             _q(r["fs"], S), r["fs"], "20.2.2.1"))
-    steps.append(_phi_step(x, r))
+    steps.append(_phi_step(x.spiral, r))
     factor = format_number(u.moment_to_base)
     base_moment = f"{u.force}·{u.length}"
     steps.append(SheetStep(
@@ -172,21 +175,12 @@ def _strength_steps(x: _Inputs, r: dict) -> list[SheetStep]:
         f"{_given(x.As, A)} × {_q(r['fs'], S)} × ({_given(x.d, L)} − {_q(r['a'], L)}/2)"
         f" = {_q(r['Mn'] * u.moment_to_base, base_moment)} ÷ {factor}",
         _q(r["Mn"], M), r["Mn"], "22.2.2.4.1, 22.2.1.1"))
-    steps.append(SheetStep(
-        "phiMn", f"φ{_MN}", f"φ{_MN} = φ × {_MN}",
-        f"{_q(r['phi'], digits=3)} × {_q(r['Mn'], M)}", _q(r["phiMn"], M), r["phiMn"],
-        "21.2.1, 9.5.1.1"))
-    if r.get("utilization") is not None:
-        steps.append(SheetStep(
-            "utilization", "M<sub>u</sub> / φM<sub>n</sub>", "M<sub>u</sub> / φ" + _MN + " ≤ 1",
-            f"{_given(r['Mu'], M)} / {_q(r['phiMn'], M)}", _q(r["utilization"], digits=3),
-            r["utilization"], "9.5.1.1"))
-    return steps
+    return steps + _capacity_steps(r, M)
 
 
-def _phi_step(x: _Inputs, r: dict) -> SheetStep:
-    low, span = ("0.75", "0.15") if x.spiral else ("0.65", "0.25")
-    kind = "spiral (25.7.3)" if x.spiral else "other transverse reinforcement"
+def _phi_step(spiral: bool, r: dict) -> SheetStep:
+    low, span = ("0.75", "0.15") if spiral else ("0.65", "0.25")
+    kind = "spiral (25.7.3)" if spiral else "other transverse reinforcement"
     limit = f"{_q(r['eps_ty'])} + 0.003 = {_q(r['eps_ty'] + 0.003)}"
     section_class = r["section_class"]
     if section_class == "tension-controlled":
@@ -203,32 +197,41 @@ def _phi_step(x: _Inputs, r: dict) -> SheetStep:
 
 
 def _limit_steps(x: _Inputs, r: dict) -> list[SheetStep]:
-    u = x.system
+    steps = _minimum_steps(x.system, x.fc, x.fy, x.b, x.d, x.As, r, exact_d=True)
+    for limit in _LIMITS(r):
+        steps.append(_limit_ratio_step(x, r, *limit))
+    return steps
+
+
+def _minimum_steps(u: UnitSystem, fc: float, fy: float, bw: float, d: float, As: float, r: dict,
+                   *, exact_d: bool) -> list[SheetStep]:
+    """As,min by 9.6.1.2 on bw·d, ρmin and ρ; `exact_d`: d is an input (else the centroid)."""
     L, A, S = u.length, u.area, u.stress
     k_sqrt, k_flat = _AS_MIN_TEXT[u.name]
-    bd = f"{_given(x.b, L)} × {_given(x.d, L)}"
-    steps = [
-        SheetStep("As_min_sqrt_term", f"{_AS},min (a)", f"{_AS},min(a) = {k_sqrt} √{_FC} / {_FY} × b d",
-                  f"{k_sqrt} × √{_given(x.fc)} / {_given(x.fy, S)} × {bd}",
-                  _q(r["As_min_sqrt_term"], A), r["As_min_sqrt_term"], "9.6.1.2(a)"),
-        SheetStep("As_min_flat_term", f"{_AS},min (b)", f"{_AS},min(b) = {k_flat} / {_FY} × b d",
-                  f"{k_flat} / {_given(x.fy, S)} × {bd}",
-                  _q(r["As_min_flat_term"], A), r["As_min_flat_term"], "9.6.1.2(b)"),
+    d_text = _given(d, L) if exact_d else _q(d, L)
+    As_text = _given(As, A) if exact_d else _q(As, A)
+    bd = f"{_given(bw, L)} × {d_text}"
+    width = "b" if exact_d else _BW
+    return [
+        SheetStep("As_min_sqrt_term", f"{_AS},min (a)",
+                  f"{_AS},min(a) = {k_sqrt} √{_FC} / {_FY} × {width} d",
+                  f"{k_sqrt} × √{_given(fc)} / {_given(fy, S)} × {bd}",
+                  _q(r["As_min_sqrt_term"], A), r["As_min_sqrt_term"], "9.6.1.2(a)",
+                  group="limits"),
+        SheetStep("As_min_flat_term", f"{_AS},min (b)",
+                  f"{_AS},min(b) = {k_flat} / {_FY} × {width} d",
+                  f"{k_flat} / {_given(fy, S)} × {bd}",
+                  _q(r["As_min_flat_term"], A), r["As_min_flat_term"], "9.6.1.2(b)",
+                  group="limits"),
         SheetStep("As_min", f"{_AS},min", f"{_AS},min = max((a), (b))",
                   f"max({_q(r['As_min_sqrt_term'], A)}, {_q(r['As_min_flat_term'], A)})",
-                  _q(r["As_min"], A), r["As_min"], "9.6.1.2"),
-        SheetStep("rho_min", "ρ<sub>min</sub>", f"ρ<sub>min</sub> = {_AS},min / (b d)",
-                  f"{_q(r['As_min'], A)} / ({bd})", _q(r["rho_min"]), r["rho_min"], "9.6.1.2"),
-        SheetStep("rho", "ρ", f"ρ = {_AS} / (b d)", f"{_given(x.As, A)} / ({bd})",
-                  _q(r["rho"]), r["rho"], "2.2 (notation)"),
+                  _q(r["As_min"], A), r["As_min"], "9.6.1.2", group="limits"),
+        SheetStep("rho_min", "ρ<sub>min</sub>", f"ρ<sub>min</sub> = {_AS},min / ({width} d)",
+                  f"{_q(r['As_min'], A)} / ({bd})", _q(r["rho_min"]), r["rho_min"], "9.6.1.2",
+                  group="limits"),
+        SheetStep("rho", "ρ", f"ρ = {_AS} / ({width} d)", f"{As_text} / ({bd})",
+                  _q(r["rho"]), r["rho"], "2.2 (notation)", group="limits"),
     ]
-    for key, area_key, name, strain_text, strain, clause in (
-            ("rho_tc", "As_tc", "ρ<sub>tc</sub>", f"{_EPS_TY} + 0.003", r["eps_ty"] + 0.003,
-             "Table 21.2.2"),
-            ("rho_max", "As_max", "ρ<sub>max</sub>", "0.004", 0.004, "9.3.3.1"),
-            ("rho_b", "As_b", "ρ<sub>b</sub>", _EPS_TY, r["eps_ty"], "21.2.2 (balanced)")):
-        steps.append(_limit_ratio_step(x, r, key, area_key, name, strain_text, strain, clause))
-    return steps
 
 
 def _limit_ratio_step(x: _Inputs, r: dict, key: str, area_key: str, name: str,
@@ -255,27 +258,317 @@ def _limit_ratio_step(x: _Inputs, r: dict, key: str, area_key: str, name: str,
     quantity = f"{name} at {_EPS_T} = {strain_text}"
     if r[key] is None:  # to_dict writes an unreachable (infinite) limit as None
         return SheetStep(key, quantity, equation, substituted, "none: no A<sub>s</sub> reaches it",
-                         math.inf, clause)
+                         math.inf, clause, group="limits")
     result = f"{_q(r[key])}<br>{_AS} = {_q(r[area_key], A)}"
-    return SheetStep(key, quantity, equation, substituted, result, r[key], clause)
+    return SheetStep(key, quantity, equation, substituted, result, r[key], clause, group="limits")
 
 
-_REQUIRED = ("units", "fc", "fy", "b", "d", "As")
+_AS_I, _D_I, _ASC, _DC = "A<sub>s,i</sub>", "d<sub>i</sub>", "A′<sub>s</sub>", "d′"
+_BW, _BF, _HF, _AC, _CC = "b<sub>w</sub>", "b<sub>f</sub>", "h<sub>f</sub>", "A<sub>c</sub>", "C<sub>c</sub>"
+_FORCE = {"us": "kip", "si": "kN"}  # forces are printed in 1000 base units (lb, N) ÷ 1000
+_LEVER = {"us": "kip·in", "si": "kN·mm"}
+
+
+def is_closed_form(beam: BeamSection, a: float) -> bool:
+    """Whether the textbook closed form describes the section: one tension layer in a rectangle.
+
+    Any flange, compression steel or second layer, or a block cut off at h,
+    needs the general strain-compatibility write-up.
+    """
+    return (beam.flange is None and len(beam.layers) == 1
+            and (beam.h is None or a <= beam.h))
+
+
+def _kilo(force: float, u: UnitSystem) -> str:
+    """A force in base units (lb or N), printed in kip or kN."""
+    return _q(force / 1000, _FORCE[u.name])
+
+
+def _common_steps(u: UnitSystem, fc: float, fy: float, es: float, r: dict) -> list[SheetStep]:
+    """β1 and εty, the same for every section."""
+    S = u.stress
+    low, high, step = _BETA1_ROWS[u.name]
+    if r["beta1"] == 0.85:
+        eq, sub = f"{_B1} = 0.85 for {_FC} ≤ {low} {S}", f"{_FC} = {_given(fc, S)} ≤ {low} {S}"
+    elif r["beta1"] == 0.65:
+        eq, sub = f"{_B1} = 0.65 for {_FC} ≥ {high} {S}", f"{_FC} = {_given(fc, S)} ≥ {high} {S}"
+    else:
+        eq = f"{_B1} = 0.85 − 0.05 ({_FC} − {low}) / {step}"
+        sub = f"0.85 − 0.05 × ({_given(fc)} − {low}) / {step}"
+    return [
+        SheetStep("beta1", _B1, eq, sub, _q(r["beta1"], digits=3), r["beta1"], "Table 22.2.2.4.3"),
+        SheetStep("eps_ty", _EPS_TY, f"{_EPS_TY} = {_FY} / {_ES}",
+                  f"{_given(fy, S)} / {_given(es, S)}", _q(r["eps_ty"]), r["eps_ty"], "21.2.2.1"),
+    ]
+
+
+def _span(key: str, value: float, text: str) -> str:
+    """A result with its machine-readable value, for a cell that shows several."""
+    return f'<span data-key="{key}" data-value="{_data_value(value)}">{text}</span>'
+
+
+def _block_step(beam: BeamSection, a: float) -> tuple[SheetStep, float, float]:
+    """The compressed area within a (22.2.2.4.1): which case applies, its area and centroid."""
+    u = beam.system
+    L, A = u.length, u.area
+    area, centroid = compressed_area(beam, a)
+    depth, cut = a, beam.h is not None and a > beam.h
+    if cut:
+        depth = beam.h
+    flange = beam.flange
+    depth_text = f"h = {_given(beam.h, L)}" if cut else f"a = {_q(a, L)}"
+    cut_note = f"a = {_q(a, L)} &gt; h: the block stops at h; " if cut else ""
+    if flange is None:
+        eq = f"{_AC} = b a" if not cut else f"{_AC} = b h (a &gt; h)"
+        sub = f"{cut_note}{_given(beam.bw, L)} × {_q(depth, L) if not cut else _given(depth, L)}"
+        y_eq, y_sub = ("ȳ = a / 2", f"{_q(depth, L)} / 2")
+    elif depth <= flange.thickness:
+        eq = f"a ≤ {_HF}: the block lies in the flange, {_AC} = {_BF} a"
+        sub = (f"{cut_note}{depth_text} ≤ {_HF} = {_given(flange.thickness, L)}; "
+               f"{_given(flange.width, L)} × {_q(depth, L)}")
+        y_eq, y_sub = ("ȳ = a / 2", f"{_q(depth, L)} / 2")
+    else:
+        eq = (f"a &gt; {_HF}: the block covers the flange and the web, "
+              f"{_AC} = {_BF} {_HF} + {_BW} (a − {_HF})")
+        sub = (f"{cut_note}{depth_text} &gt; {_HF} = {_given(flange.thickness, L)}; "
+               f"{_given(flange.width, L)} × {_given(flange.thickness, L)} + "
+               f"{_given(beam.bw, L)} × ({_q(depth, L)} − {_given(flange.thickness, L)})")
+        y_eq = (f"ȳ = [{_BF} {_HF} · {_HF}/2 + {_BW} (a − {_HF}) · ({_HF} + a)/2] / {_AC}")
+        y_sub = (f"[{_given(flange.width, L)} × {_given(flange.thickness, L)} × "
+                 f"{_given(flange.thickness, L)}/2 + {_given(beam.bw, L)} × ({_q(depth, L)} − "
+                 f"{_given(flange.thickness, L)}) × ({_given(flange.thickness, L)} + "
+                 f"{_q(depth, L)})/2] / {_q(area, A)}")
+    step = SheetStep("Ac", _AC, eq, sub, _q(area, A), area, "22.2.2.4.1")
+    centroid_step = SheetStep("y_c", "ȳ", f"{y_eq} (depth of {_CC} from the top)", y_sub,
+                              _q(centroid, L), centroid, "22.2.2.4.1")
+    return step, centroid_step, area
+
+
+def _layer_name(index: int, role: str) -> str:
+    return f"layer {index} ({role})"
+
+
+def _layer_steps(beam: BeamSection, r: dict, c: float, b1: float) -> tuple[list[SheetStep], list]:
+    """Each layer's strain, stress (yield or not) and force; forces compression positive."""
+    u = beam.system
+    L, A, S = u.length, u.area, u.stress
+    steps, forces = [], []
+    for index, (layer, state) in enumerate(zip(beam.layers, r["layers"]), start=1):
+        inside = in_block(layer.depth, c, b1)
+        force = layer_force(beam, layer.depth, layer.area, c, inside)
+        forces.append((index, layer, force))
+        compression = layer.role is Role.COMPRESSION
+        strain, stress = state["strain"], state["stress"]
+        if compression:
+            e, f, ai, di = "ε′<sub>s</sub>", "f′<sub>s</sub>", _ASC, _DC
+            strain_eq = f"{e} = {_EPS_CU} (c − {di}) / c"  # written compression positive
+            shown_strain, shown_stress = -strain, -stress
+            strain_sub = (f"{EPS_CU} × ({_q(c, L)} − {_given(layer.depth, L)}) / {_q(c, L)}"
+                          f" = {_q(shown_strain)}")
+            force_name = "C<sub>s</sub>"
+        else:
+            e, f = f"ε<sub>s,{index}</sub>", f"f<sub>s,{index}</sub>"
+            ai, di = f"A<sub>s,{index}</sub>", f"d<sub>{index}</sub>"
+            strain_eq = f"{e} = {_EPS_CU} ({di} − c) / c"
+            shown_strain, shown_stress = strain, stress
+            strain_sub = (f"{EPS_CU} × ({_given(layer.depth, L)} − {_q(c, L)}) / {_q(c, L)}"
+                          f" = {_q(shown_strain)}")
+            force_name = f"T<sub>{index}</sub>"
+        if shown_strain < 0:
+            strain_sub += " (in compression)" if not compression else " (in tension)"
+        if state["yields"]:
+            sign = "−" if shown_stress < 0 else ""
+            stress_sub = f"|{e}| ≥ {_EPS_TY} = {_q(r['eps_ty'])}: {f} = {sign}{_given(beam.fy, S)}"
+        else:
+            stress_sub = (f"|{e}| &lt; {_EPS_TY} = {_q(r['eps_ty'])}: {f} = {_given(beam.es, S)} × "
+                          f"{_q(shown_strain)} = {_q(shown_stress, S)}")
+        shown_force = force if compression else -force
+        if inside:
+            force_eq = f"{force_name} = {ai} ({f} − 0.85 {_FC}) (the bar displaces block concrete)"
+            force_sub = (f"{_given(layer.area, A)} × ({_q(shown_stress, S)} "
+                         f"{'−' if compression else '+'} 0.85 × {_given(beam.fc, S)}) ÷ 1000"
+                         f" = {_kilo(shown_force, u)}")
+        else:
+            force_eq = f"{force_name} = {ai} {f}"
+            force_sub = (f"{_given(layer.area, A)} × {_q(shown_stress, S)} ÷ 1000"
+                         f" = {_kilo(shown_force, u)}")
+        equation = f"{strain_eq}; {f} = {_ES} {e}, at most {_FY}; {force_eq}"
+        substituted = f"{strain_sub}; {stress_sub}; {force_sub}"
+        key = f"layer{index}"
+        yielded = "yields" if state["yields"] else "below yield"
+        result = (f"{e} = {_span(key + '_strain', strain, _q(shown_strain))}<br>"
+                  f"{f} = {_span(key + '_stress', stress, _q(shown_stress, S))} ({yielded})<br>"
+                  f"{force_name} = {_span(key + '_force', force, _kilo(shown_force, u))}")
+        role = "compression" if compression else "tension"
+        quantity = f"{_layer_name(index, role)}: {_given(layer.area, A)} at {_given(layer.depth, L)}"
+        clause = "22.2.1.2, 20.2.2.1" + (", 22.2.2.4.1" if inside else "")
+        steps.append(SheetStep(key, quantity, equation, substituted, result, stress, clause,
+                               keyed_result=True))
+    return steps, forces
+
+
+def _general_strength_steps(result: FlexuralCheck, r: dict, given_dt: bool) -> list[SheetStep]:
+    beam = result.beam
+    u = beam.system
+    L, A, S, M = u.length, u.area, u.stress, u.moment
+    c, a, b1 = r["c"], r["a"], r["beta1"]
+    steps = _common_steps(u, beam.fc, beam.fy, beam.es, r)
+    tension = beam.tension_layers
+    if len(tension) > 1:
+        steps.append(SheetStep(
+            "As", _AS, f"{_AS} = Σ {_AS_I}", " + ".join(_given(t.area, A) for t in tension),
+            _q(r["As"], A), r["As"], "2.2 (notation)"))
+        steps.append(SheetStep(
+            "d", "d", f"d = Σ {_AS_I} {_D_I} / {_AS} (centroid of the tension steel)",
+            "(" + " + ".join(f"{_given(t.area, A)} × {_given(t.depth, L)}" for t in tension)
+            + f") / {_q(r['As'], A)}", _q(r["d"], L), r["d"], "2.2 (notation)"))
+    deepest = max(t.depth for t in tension)
+    if given_dt:
+        dt_sub = f"given; the deepest tension layer is at {_given(deepest, L)}"
+    elif len(tension) == 1:
+        dt_sub = f"the tension steel's depth, {_given(deepest, L)}"
+    else:
+        dt_sub = "max(" + ", ".join(_given(t.depth, L) for t in tension) + ")"
+    steps.append(SheetStep(
+        "dt", _DT, f"{_DT} = depth of the extreme tension steel", dt_sub, _given(r["dt"], L),
+        r["dt"], "2.2 (notation), 21.2.2"))
+    block, centroid_step, area = _block_step(beam, a)
+    concrete = block_force(beam, a)[0]
+    layer_steps, forces = _layer_steps(beam, r, c, b1)
+    compression_sum = sum(f for _, layer, f in forces if f > 0)
+    tension_sum = -sum(f for _, layer, f in forces if f <= 0)
+    balance_terms = f"{_kilo(concrete, u)}" + "".join(
+        f" {'+' if f > 0 else '−'} {_kilo(abs(f), u)}" for _, _, f in forces)
+    steps.append(SheetStep(
+        "c", "c",
+        f"{_CC} + Σ C = Σ T, strains linear from {_EPS_CU} at the top: "
+        f"ε(y) = {_EPS_CU} (y − c) / c; solved for c &gt; 0",
+        f"{_kilo(concrete + compression_sum, u)} = {_kilo(tension_sum, u)} at c = {_q(c, L)} "
+        f"(the force balance below)",
+        _q(c, L), c, "22.2.1.1, 22.2.1.2, 22.2.2.1"))
+    steps.append(SheetStep("a", "a", f"a = {_B1} c", f"{_q(b1, digits=3)} × {_q(c, L)}",
+                           _q(a, L), a, "22.2.2.4.1"))
+    steps.append(block)
+    steps.append(centroid_step)
+    steps.append(SheetStep(
+        "Cc", _CC, f"{_CC} = 0.85 {_FC} {_AC}",
+        f"0.85 × {_given(beam.fc, S)} × {_q(area, A)} ÷ 1000",
+        _kilo(concrete, u), concrete, "22.2.2.4.1"))
+    steps += layer_steps
+    residual = concrete + sum(f for _, _, f in forces)
+    scale = max(concrete, tension_sum, 1e-300)
+    residual_text = ("0 (to solver precision)" if abs(residual) <= 1e-9 * scale
+                     else _kilo(residual, u))
+    steps.append(SheetStep(
+        "balance", "ΣF", f"{_CC} + Σ C − Σ T = 0 (forces compression positive)",
+        f"{balance_terms} = {residual_text.split(' (')[0]}", residual_text, residual, "22.2.1.1"))
+    steps.append(SheetStep(
+        "eps_t", _EPS_T, f"{_EPS_T} = {_EPS_CU} ({_DT} − c) / c",
+        f"{EPS_CU} × ({_given(r['dt'], L)} − {_q(c, L)}) / {_q(c, L)}", _q(r["eps_t"]), r["eps_t"],
+        "22.2.1.2, 22.2.2.1"))
+    steps.append(_phi_step(beam.spiral, r))
+    d = r["d"]
+    terms = f"{_kilo(concrete, u)} × ({_q(d, L)} − {_q(compressed_area(beam, a)[1], L)})"
+    for _, layer, force in forces:
+        if layer.depth == d:
+            continue  # a layer at d has no lever arm about d
+        terms += f" + ({_kilo(force, u)}) × ({_q(d, L)} − {_given(layer.depth, L)})"
+    factor = format_number(u.moment_to_base / 1000)
+    steps.append(SheetStep(
+        "Mn", _MN, f"{_MN} = {_CC} (d − ȳ) + Σ F<sub>i</sub> (d − {_D_I}), moments about d, "
+        f"forces compression positive",
+        f"{terms} = {_q(r['Mn'] * u.moment_to_base / 1000, _LEVER[u.name])} ÷ {factor}",
+        _q(r["Mn"], M), r["Mn"], "22.2.2.4.1, 22.2.1.1"))
+    steps += _capacity_steps(r, M)
+    return steps
+
+
+def _capacity_steps(r: dict, M: str) -> list[SheetStep]:
+    """φMn and, with Mu, the utilisation."""
+    steps = [SheetStep(
+        "phiMn", f"φ{_MN}", f"φ{_MN} = φ × {_MN}",
+        f"{_q(r['phi'], digits=3)} × {_q(r['Mn'], M)}", _q(r["phiMn"], M), r["phiMn"],
+        "21.2.1, 9.5.1.1")]
+    if r.get("utilization") is not None:
+        steps.append(SheetStep(
+            "utilization", "M<sub>u</sub> / φM<sub>n</sub>", "M<sub>u</sub> / φ" + _MN + " ≤ 1",
+            f"{_given(r['Mu'], M)} / {_q(r['phiMn'], M)}", _q(r["utilization"], digits=3),
+            r["utilization"], "9.5.1.1"))
+    return steps
+
+
+def _general_limit_steps(result: FlexuralCheck, r: dict) -> list[SheetStep]:
+    """As,min on bw·d (9.6.1.2), ρ, and the tension steel at each limit strain."""
+    beam = result.beam
+    u = beam.system
+    L, A, S = u.length, u.area, u.stress
+    steps = _minimum_steps(u, beam.fc, beam.fy, beam.bw, r["d"], r["As"], r, exact_d=False)
+    for key, area_key, name, strain_text, strain, clause in _LIMITS(r):
+        steps.append(_general_limit_step(beam, r, key, area_key, name, strain_text, strain, clause))
+    return steps
+
+
+def _LIMITS(r: dict):
+    return (("rho_tc", "As_tc", "ρ<sub>tc</sub>", f"{_EPS_TY} + 0.003", r["eps_ty"] + 0.003,
+             "Table 21.2.2"),
+            ("rho_max", "As_max", "ρ<sub>max</sub>", "0.004", 0.004, "9.3.3.1"),
+            ("rho_b", "As_b", "ρ<sub>b</sub>", _EPS_TY, r["eps_ty"], "21.2.2 (balanced)"))
+
+
+def _general_limit_step(beam: BeamSection, r: dict, key: str, area_key: str, name: str,
+                        strain_text: str, strain: float, clause: str) -> SheetStep:
+    """As at a limit strain: c fixed by εt at dt; the tension layers scaled together balance the rest."""
+    u = beam.system
+    L, A, S = u.length, u.area, u.stress
+    b1 = r["beta1"]
+    c = EPS_CU * beam.dt / (EPS_CU + strain)  # 22.2.1.2, as the engine does
+    fixed = block_force(beam, b1 * c)[0]
+    tension = 0.0
+    for layer in beam.layers:
+        force = layer_force(beam, layer.depth, layer.area, c, in_block(layer.depth, c, b1))
+        if layer.role is Role.TENSION:
+            tension += force
+        else:
+            fixed += force
+    mean_stress = -tension / beam.As  # the tension layers' mean stress at this c
+    equation = (f"{name} = {_AS} / ({_BW} d), {_AS} = ({_CC} + Σ C) / f̄<sub>s</sub>; "
+                f"c = {_EPS_CU} {_DT} / ({_EPS_CU} + {_EPS_T}), a = {_B1} c, "
+                f"f̄<sub>s</sub> the tension layers' mean stress")
+    depth = (f"c = {EPS_CU} × {_given(beam.dt, L)} / ({EPS_CU} + {_q(strain)}) = {_q(c, L)}; "
+             f"a = {_q(b1 * c, L)}")
+    quantity = f"{name} at {_EPS_T} = {strain_text}"
+    if r[key] is None:
+        return SheetStep(key, quantity, equation,
+                         f"{depth}; the tension steel is not in tension there, so no "
+                         f"{_AS} reaches this {_EPS_T}",
+                         "none: no A<sub>s</sub> reaches it", math.inf, clause, group="limits")
+    substituted = (f"{depth}; {_CC} + Σ C = {_kilo(fixed, u)}; f̄<sub>s</sub> = "
+                   f"{_q(mean_stress, S)}; {_AS} = {_q(r[area_key], A)}; "
+                   f"{_q(r[area_key], A)} / ({_given(beam.bw, L)} × {_q(r['d'], L)})")
+    result = f"{_q(r[key])}<br>{_AS} = {_q(r[area_key], A)}"
+    return SheetStep(key, quantity, equation, substituted, result, r[key], clause, group="limits")
+
+
+_REQUIRED = ("units", "fc", "fy", "b")
 
 
 def _calculate(inputs: Mapping[str, object]) -> tuple[FlexuralCheck, tuple[SheetStep, ...]]:
     """The engine's result for `inputs` and the sheet's steps drawn from it."""
     extra = sorted(set(inputs) - set(SHEET_INPUTS))
     if extra:
-        raise InputError(extra[0], inputs[extra[0]], "only the inputs of a singly reinforced "
-                         "rectangular section: " + ", ".join(SHEET_INPUTS))
+        raise InputError(extra[0], inputs[extra[0]], "one of the inputs of engine.check: "
+                         + ", ".join(SHEET_INPUTS))
     for field in _REQUIRED:
         if field not in inputs:
             raise InputError(field, None, "a value (this input is required)")
     result = check(**inputs)  # type: ignore[arg-type]
     values = result.to_dict()
-    x = _inputs(inputs)
-    return result, tuple(_strength_steps(x, values) + _limit_steps(x, values))
+    if is_closed_form(result.beam, values["a"]):
+        x = _inputs(inputs, result.beam)
+        return result, tuple(_strength_steps(x, values) + _limit_steps(x, values))
+    given_dt = inputs.get("dt") is not None
+    return result, tuple(_general_strength_steps(result, values, given_dt)
+                         + _general_limit_steps(result, values))
 
 
 def sheet_steps(inputs: Mapping[str, object]) -> tuple[SheetStep, ...]:
@@ -354,16 +647,34 @@ def _header(project: object, mark: object, engineer: object, date: object) -> st
             f'<tr>{cells[2]}{cells[3]}</tr></table>')
 
 
-def _inputs_table(x: _Inputs) -> str:
-    u = x.system
+def _inputs_table(result: FlexuralCheck) -> str:
+    beam = result.beam
+    u = beam.system
+    L, A = u.length, u.area
     cells = [
         ("Units", "units", "US customary" if u.name == "us" else "SI"),
-        (f"{_FC}", "fc", _given(x.fc, u.stress)), (_FY, "fy", _given(x.fy, u.stress)),
-        (_ES, "es", _given(x.es, u.stress)), ("b", "b", _given(x.b, u.length)),
-        ("d", "d", _given(x.d, u.length)), (_DT, "dt", _given(x.dt, u.length)),
-        (_AS, "As", _given(x.As, u.area)),
-        ("M<sub>u</sub>", "Mu", "not given" if x.Mu is None else _given(x.Mu, u.moment)),
-        ("Transverse", "spiral", "spiral (25.7.3)" if x.spiral else "other (ties or none)"),
+        (f"{_FC}", "fc", _given(beam.fc, u.stress)), (_FY, "fy", _given(beam.fy, u.stress)),
+        (_ES, "es", _given(beam.es, u.stress)),
+        ("b" if beam.flange is None else _BW, "b", _given(beam.bw, L)),
+    ]
+    if beam.h is not None:
+        cells.append(("h", "h", _given(beam.h, L)))
+    if beam.flange is not None:
+        cells += [(_BF, "bf", _given(beam.flange.width, L)),
+                  (_HF, "hf", _given(beam.flange.thickness, L))]
+    tension = beam.tension_layers
+    if len(tension) == 1:
+        cells += [("d", "d", _given(tension[0].depth, L)), (_AS, "As", _given(tension[0].area, A))]
+    else:
+        cells += [(f"Layer {i}", f"layer{i}", f"{_given(t.area, A)} at {_given(t.depth, L)}")
+                  for i, t in enumerate(beam.layers, 1) if t.role is Role.TENSION]
+    for layer in beam.layers:
+        if layer.role is Role.COMPRESSION:
+            cells += [(_ASC, "asc", _given(layer.area, A)), (_DC, "dc", _given(layer.depth, L))]
+    cells += [
+        (_DT, "dt", _given(beam.dt, L)),
+        ("M<sub>u</sub>", "Mu", "not given" if result.Mu is None else _given(result.Mu, u.moment)),
+        ("Transverse", "spiral", "spiral (25.7.3)" if beam.spiral else "other (ties or none)"),
     ]
     rows = []
     for i in range(0, len(cells), 4):
@@ -373,17 +684,33 @@ def _inputs_table(x: _Inputs) -> str:
     return f'<table class="inputs">{"".join(rows)}</table>'
 
 
+def section_title(beam: BeamSection) -> str:
+    """What the sheet's heading calls the section, e.g. "flanged section, doubly reinforced"."""
+    shape = "rectangular section" if beam.flange is None else "flanged (T or L) section"
+    compression = any(layer.role is Role.COMPRESSION for layer in beam.layers)
+    steel = "doubly reinforced" if compression else "singly reinforced"
+    count = len(beam.tension_layers)
+    if count > 1:
+        steel += f", {count} tension layers"
+    return f"{shape}, {steel}"
+
+
 def _data_value(value: float) -> str:
     return format_number(value) if math.isfinite(value) else "inf"
 
 
-def _steps_table(steps: tuple[SheetStep, ...], title: str, keys: set[str]) -> str:
+def _steps_table(steps: tuple[SheetStep, ...], title: str, group: str) -> str:
+    def result_cell(s: SheetStep) -> str:
+        if s.keyed_result:
+            return f'<td class="result">{s.result}</td>'
+        return (f'<td class="result" data-key="{s.key}" data-value="{_data_value(s.value)}">'
+                f'{s.result}</td>')
+
     rows = "".join(
         f'<tr data-step="{s.key}"><td class="quantity">{s.quantity}</td>'
         f'<td class="equation">{s.equation}</td><td class="substituted">{s.substituted}</td>'
-        f'<td class="result" data-key="{s.key}" data-value="{_data_value(s.value)}">'
-        f'{s.result}</td><td class="clause">{html.escape(s.clause)}</td></tr>'
-        for s in steps if s.key in keys)
+        f'{result_cell(s)}<td class="clause">{html.escape(s.clause)}</td></tr>'
+        for s in steps if s.group == group)
     return (f'<section><h2>{title}</h2><table class="steps"><tr><th>Quantity</th><th>Equation</th>'
             f'<th>With the numbers</th><th>Result</th><th>ACI 318-19</th></tr>{rows}</table>'
             f'</section>')
@@ -435,8 +762,8 @@ def calculation_sheet(
 ) -> str:
     """The calculation sheet for `engine.check(**inputs)` as one HTML document.
 
-    `inputs` are `engine.check`'s keywords (singly reinforced rectangular
-    section: `SHEET_INPUTS`); bad inputs raise `InputError` as `check` does.
+    `inputs` are `engine.check`'s keywords (any of `SHEET_INPUTS`; None
+    means not given); bad inputs raise `InputError` as `check` does.
     `project`, `mark`, `engineer` and `date` are user text, shown escaped.
     `link` is the share link (see `share_link.share_url`), printed as text;
     `qr_svg` its QR code as one inline <svg> element (the engine makes none:
@@ -444,11 +771,7 @@ def calculation_sheet(
     or links.
     """
     result, steps = _calculate(inputs)
-    x = _inputs(inputs)
-    strength_keys = {"beta1", "eps_ty", "a", "c", "eps_t", "fs", "phi", "Mn", "phiMn",
-                     "utilization"}
-    limit_keys = {s.key for s in steps} - strength_keys
-    heading = "Flexural strength of a singly reinforced rectangular section, ACI 318-19"
+    heading = f"Flexural strength of a {section_title(result.beam)}, ACI 318-19"
     page_title = user_text(f"{mark} {project}".strip() or "Calculation sheet", limit=120)
     return (
         f'<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8">'
@@ -457,9 +780,9 @@ def calculation_sheet(
         f'<body><main>'
         f'<h1>{html.escape(title)} calculation sheet</h1><p>{heading}</p>'
         f'{_header(project, mark, engineer, date)}'
-        f'<section><h2>Inputs</h2>{_inputs_table(x)}</section>'
-        f'{_steps_table(steps, "Strength (ε<sub>cu</sub> = 0.003, 22.2.2.1)", strength_keys)}'
-        f'{_steps_table(steps, "Reinforcement limits", limit_keys)}'
+        f'<section><h2>Inputs</h2>{_inputs_table(result)}</section>'
+        f'{_steps_table(steps, "Strength (ε<sub>cu</sub> = 0.003, 22.2.2.1)", "strength")}'
+        f'{_steps_table(steps, "Reinforcement limits", "limits")}'
         f'{_checks_section(result)}'
         f'{_footer(link, qr_svg)}'
         f'</main></body></html>\n'

@@ -63,7 +63,7 @@ def test_report_escapes_hostile_header_text(tmp_path, capsys):
 @pytest.mark.parametrize("extra, field", [
     pytest.param(["--date", "14/03/2025"], "date", id="date-format"),
     pytest.param(["--date", "2025-02-30"], "date", id="date-impossible"),
-    pytest.param(["--bf", "40", "--hf", "4"], "bf", id="flanged-not-covered"),
+    pytest.param(["--bf", "10", "--hf", "4"], "bf", id="flange-narrower-than-web"),
     pytest.param(["--fc", "-4000"], "fc", id="bad-fc"),
 ])
 def test_report_refuses_bad_input_in_one_line(run_cli, tmp_path, extra, field):
@@ -72,6 +72,29 @@ def test_report_refuses_bad_input_in_one_line(run_cli, tmp_path, extra, field):
     assert done.stderr.count("\n") == 1 and "Traceback" not in done.stderr
     assert f"{field}:" in done.stderr
     assert not (tmp_path / "x.html").exists()
+
+
+@pytest.mark.parametrize("flags", [
+    pytest.param(["--bf", "48", "--hf", "4", "--h", "30", "--layer", "3.16@27.5",
+                  "--layer", "2.37@24.5", "--asc", "1.2", "--dc", "2.5", "--mu", "400"],
+                 id="T-doubly-two-layers"),
+    pytest.param(["--d", "22", "--as", "6", "--asc", "2", "--dc", "3", "--mu", "400"],
+                 id="doubly"),
+])
+def test_report_covers_every_section_check_takes(tmp_path, capsys, flags):
+    """The same flags as `check`; the sheet's φMn and each layer's stress are check --json's."""
+    base = ["--units", "us", "--fc", "4000", "--fy", "60000", "--b", "12"]
+    assert main(["check", *base, *flags, "--json"]) == 0
+    reference = json.loads(capsys.readouterr().out)
+    out = tmp_path / "sheet.html"
+    assert main(["report", *base, *flags, "--out", str(out), "--date", "2025-03-14"]) == 0
+    capsys.readouterr()
+    sheet = out.read_text(encoding="utf-8")
+    assert f'data-key="phiMn" data-value="{format_number(reference["phiMn"])}"' in sheet
+    for index, layer in enumerate(reference["layers"], start=1):
+        assert (f'data-key="layer{index}_stress" data-value="{format_number(layer["stress"])}"'
+                in sheet)
+    assert "0.85 f′<sub>c</sub>" in sheet  # the force balance and displaced concrete
 
 
 def test_report_into_a_missing_folder_is_a_clear_error(run_cli, tmp_path):

@@ -11,7 +11,7 @@ import sys
 from ..checks import check
 from ..errors import InputError
 from ..share_link import share_url
-from ..sheet import SHEET_INPUTS, calculation_sheet
+from ..sheet import calculation_sheet
 from .arguments import add_section_flags, parse_float, section_inputs
 
 DEFAULT_LINK_BASE = "http://localhost:8000/"
@@ -37,14 +37,21 @@ def register(commands) -> None:
 def report_inputs(args: argparse.Namespace) -> dict:
     """The check's inputs from the flags, without those left at their defaults."""
     inputs = {**section_inputs(args), "Mu": parse_float("Mu", args.mu)}
-    inputs = {key: value for key, value in inputs.items()
-              if value is not None and value != [] and not (key == "spiral" and value is False)}
-    extra = [key for key in inputs if key not in SHEET_INPUTS]
-    if extra:
-        raise InputError(extra[0], inputs[extra[0]], "no value: the calculation sheet covers a "
-                         "singly reinforced rectangular section (units, fc, fy, b, d, As, dt, es, "
-                         "Mu, spiral); use `check` for this section")
-    return inputs
+    return {key: value for key, value in inputs.items()
+            if value is not None and value != [] and not (key == "spiral" and value is False)}
+
+
+def report_link(base: str, inputs: dict) -> str:
+    """The share link of `inputs`, or "" when a link cannot carry them all.
+
+    `share_url` refuses an input it cannot carry rather than drop it (a link
+    without a flange or a layer would reopen another beam); then the sheet
+    has no link, and `run_report` says why.
+    """
+    try:
+        return share_url(base, inputs)
+    except InputError:
+        return ""
 
 
 def parse_date(text: str | None) -> str:
@@ -79,9 +86,12 @@ def run_report(args: argparse.Namespace) -> str:
     inputs = report_inputs(args)
     date = parse_date(args.date)
     result = check(**inputs)
-    link = share_url(args.link_base, inputs)
-    qr = qr_svg(link)
-    if qr is None:
+    link = report_link(args.link_base, inputs)
+    qr = qr_svg(link) if link else None
+    if not link:
+        print("python -m engine report: the sheet has no share link (a link cannot carry "
+              "every input of this section)", file=sys.stderr)
+    elif qr is None:
         print("python -m engine report: the sheet has no QR code (segno is not installed, "
               "or the link is too long for one)", file=sys.stderr)
     sheet = calculation_sheet(inputs, project=args.project, mark=args.mark,
