@@ -22,6 +22,8 @@ import engine
 from . import summary
 from .design_view import SizeBarsView, design_kwargs, matching_option
 from .plot import CapacityPlot, LimitSweepPlot
+from .schedule_view import ScheduleView
+from .sheet_view import SheetView
 from .sketch import SectionSketch, section_drawing
 from .state import (DEFAULTS, INPUT_FIELDS, NUMBER_FIELDS, SECTION_DEFAULTS, SLIDER_SPANS,
                     Inputs, convert_inputs, default_inputs, parse_query, unit_label)
@@ -156,6 +158,9 @@ class BeamCheckPage(pn.viewable.Viewer):
             if location.search:
                 self.apply_link(location.search)
         self._refresh()
+        self.sheet_view = SheetView.attach(self, "Calculation sheet")
+        self.schedule_view = ScheduleView()
+        self.add_view("Beam schedule", self.schedule_view)
 
     # -- state -----------------------------------------------------------
 

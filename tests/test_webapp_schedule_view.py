@@ -1,0 +1,125 @@
+"""The schedule view without a browser: text in, the engine's rows, summary and CSV out.
+
+References: `engine.schedule.run_schedule` / `schedule_csv` for the same text
+(the view must show exactly what the engine computed), and the demo file's
+documented outcome (tests/data/README.md: B-104, B-201 and B-202 fail).
+"""
+
+from __future__ import annotations
+
+import asyncio
+import math
+from pathlib import Path
+
+import pytest
+
+from engine.schedule import run_schedule, schedule_csv
+from webapp.schedule_view import ScheduleView, table_data
+
+DATA = Path(__file__).parent / "data"
+DEMO = (DATA / "harbourline_schedule.csv").read_text(encoding="utf-8")
+MIXED = (DATA / "harbourline_schedule_mixed.csv").read_text(encoding="utf-8")
+
+
+def run(view: ScheduleView, text: str):
+    return asyncio.run(view.run(text))
+
+
+def test_uploaded_text_becomes_the_engines_rows():
+    view = ScheduleView()
+    schedule = run(view, DEMO)
+    reference = run_schedule(DEMO)
+    assert schedule.to_dict() == reference.to_dict()
+    data = view.source.data
+    assert data["mark"] == [row.mark for row in reference.rows]
+    assert data["phiMn"] == [row.phiMn for row in reference.rows]
+    assert data["utilization"] == [row.utilization for row in reference.rows]
+    # tests/data/README.md: three demo beams fail.
+    assert {m for m, ok in zip(data["mark"], data["ok"]) if ok == "FAIL"} == {
+        "B-104", "B-201", "B-202"}
+
+
+def test_summary_counts_and_worst_utilisation_are_shown():
+    view = ScheduleView()
+    run(view, DEMO)
+    summary = run_schedule(DEMO).summary
+    assert summary.text() in view.summary.object.replace("&#x27;", "'")
+    assert f'data-failed="{summary.failed}"' in view.summary.object
+    assert f"({summary.worst_mark}, row {summary.worst_row})" in view.summary.object
+
+
+def test_download_is_the_engines_csv():
+    view = ScheduleView()
+    assert view.download.disabled  # nothing to download yet
+    run(view, MIXED)
+    assert not view.download.disabled
+    assert view._download_file().getvalue().decode("utf-8") == schedule_csv(run_schedule(MIXED))
+
+
+def test_bad_rows_fail_alone_and_are_listed_escaped():
+    view = ScheduleView()
+    text = "mark,units,fc,fy,b,d,As,Mu\n<b>B-1</b>,us,4000,60000,12,21.5,\"3,16\",180\n" \
+           "B-2,us,4000,60000,12,21.5,3.16,180\n"
+    run(view, text)
+    data = view.source.data
+    assert data["ok"] == ["error", "pass"]
+    assert math.isnan(data["phiMn"][0])
+    assert "<b>" not in view.notes.object and "&lt;b&gt;B-1&lt;/b&gt;" in view.notes.object
+    assert "column As = " in view.notes.object
+
+
+def test_tab_separated_paste_is_read():
+    rows = [line.split(",") for line in DEMO.strip().splitlines()]
+    pasted = "\n".join("\t".join(cells) for cells in rows)
+    view = ScheduleView()
+    schedule = run(view, pasted)
+    assert [r.phiMn for r in schedule.rows] == [r.phiMn for r in run_schedule(DEMO).rows]
+
+
+def test_an_unreadable_schedule_is_a_message_not_a_table():
+    view = ScheduleView()
+    assert run(view, "mark,units,fc\nB-1,us,4000\n") is None
+    assert "lacks the column" in view.status.object
+    assert view.source.data["mark"] == []
+
+
+def test_a_thousand_rows_are_checked_in_chunks_with_progress():
+    lines = DEMO.strip().splitlines()
+    text = "\n".join([lines[0]] + [lines[1 + i % (len(lines) - 1)] for i in range(1000)])
+    view = ScheduleView(chunk=50)
+    seen: list[int] = []
+    view.progress.param.watch(lambda event: seen.append(event.new), "value")
+    schedule = run(view, text)
+    assert len(schedule.rows) == 1000 and len(view.source.data["mark"]) == 1000
+    assert seen[:3] == [50, 100, 150] and seen[-1] == 1000  # one step a chunk
+    assert not view.progress.visible and not view.running
+
+
+def test_a_new_run_cancels_one_still_going():
+    lines = DEMO.strip().splitlines()
+    long_text = "\n".join([lines[0]] + lines[1:] * 40)
+    view = ScheduleView(chunk=10)
+
+    async def both():
+        first = asyncio.ensure_future(view.run(long_text))
+        await asyncio.sleep(0)
+        second = await view.run(DEMO)
+        return await first, second
+
+    first, second = asyncio.run(both())
+    assert first is None and len(second.rows) == 13
+    assert len(view.source.data["mark"]) == 13
+
+
+def test_the_upload_widget_feeds_the_run(monkeypatch):
+    view = ScheduleView()
+    started: list[str] = []
+    monkeypatch.setattr(view, "start", started.append)
+    view.upload.value = ("\ufeff" + DEMO).encode("utf-8")
+    assert started == [DEMO]  # byte-order mark dropped
+    view.upload.value = "mark,units\nB-1,ü".encode("latin-1")
+    assert "not UTF-8" in view.status.object and len(started) == 1
+
+
+def test_table_data_of_nothing_is_empty_columns():
+    assert all(values == [] for values in table_data(()).values())

@@ -1,0 +1,174 @@
+"""The calculation sheet of the current check: header fields, a preview and a download.
+
+The sheet is the engine's (`engine.sheet.calculation_sheet`), one
+self-contained HTML document in which the engine escapes every piece of
+user text. The preview shows that very document in a sandboxed iframe
+(`srcdoc`, itself escaped), so the page's styles and the sheet's never mix
+and the sheet can run nothing. The download is the same bytes.
+
+The view reads the check through two callables (the page's
+`current_inputs` and `share_url`), so it draws no formula of its own. It
+redraws only while it is shown: a change of the page's inputs while another
+tab is open marks it stale, and opening it redraws it.
+"""
+
+from __future__ import annotations
+
+import datetime
+import html
+import io
+import re
+from collections.abc import Callable
+
+import panel as pn
+import param
+
+import engine
+from engine.sheet import calculation_sheet
+
+from .summary import messages_html
+from .theme import TEXT_CSS
+
+PREVIEW_HEIGHT = 1000  # px: a Letter or A4 page at screen size, scrolled inside the frame
+
+
+def qr_svg(text: str) -> str | None:
+    """The QR code of `text` as inline SVG, or None when the text is too long for one.
+
+    segno (pure Python, in the `web` extra) is imported here so the build
+    ships it with the app.
+    """
+    import segno
+
+    try:
+        return segno.make(text, error="m").svg_inline(scale=1, omitsize=True, dark="#000")
+    except ValueError:  # segno.DataOverflowError: longer than a QR code holds
+        return None
+
+
+def sheet_filename(mark: str) -> str:
+    """A download name from the beam mark: letters, digits, '-', '_' and '.' only."""
+    stem = re.sub(r"[^A-Za-z0-9._-]+", "-", mark.strip()).strip("-.")[:60]
+    return f"{stem or 'beam'}-calculation-sheet.html"
+
+
+class SheetView(pn.viewable.Viewer):
+    """The calculation sheet for the inputs `inputs()` returns, reopened by `link()`."""
+
+    project = param.String(default="Harbourline Depot", doc="project name (user text)")
+    mark = param.String(default="B-204", doc="beam mark (user text)")
+    engineer = param.String(default="", doc="who made the check (user text)")
+    date = param.String(default="", doc="date of the check (user text; default today)")
+    document = param.String(default="", doc="the last sheet made, one HTML document")
+
+    def __init__(self, inputs: Callable[[], dict], link: Callable[[], str], **params) -> None:
+        params.setdefault("date", datetime.date.today().isoformat())
+        super().__init__(**params)
+        self._inputs, self._link = inputs, link
+        self._qr_for: tuple[str, str | None] | None = None
+        self._stale = True
+        self._visible: Callable[[], bool] = lambda: True
+        self.fields = {
+            name: pn.widgets.TextInput.from_param(
+                self.param[name], name=label, sizing_mode="stretch_width",
+                css_classes=[f"rs-sheet-{name}"])
+            for name, label in (("project", "Project"), ("mark", "Beam mark"),
+                                ("engineer", "Engineer"), ("date", "Date"))}
+        self.download = pn.widgets.FileDownload(
+            callback=self._download_file, filename=sheet_filename(self.mark),
+            label="Download sheet (HTML)", color="primary", icon="download",
+            css_classes=["rs-sheet-download"], sizing_mode="stretch_width")
+        self.message = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
+                                    css_classes=["rs-sheet-message"])
+        self.frame = pn.pane.HTML("", sizing_mode="stretch_width", min_height=PREVIEW_HEIGHT,
+                                  css_classes=["rs-sheet-frame"], margin=(4, 0))
+        self._layout = pn.Column(
+            pn.Row(*self.fields.values(), sizing_mode="stretch_width"),
+            pn.Row(self.download, pn.pane.HTML(
+                '<div class="rs-note">One self-contained HTML file: open it and print it '
+                'from the browser (Letter or A4).</div>', stylesheets=[TEXT_CSS]),
+                sizing_mode="stretch_width"),
+            self.message, self.frame, sizing_mode="stretch_width")
+
+    # -- wiring ----------------------------------------------------------
+
+    def follow(self, source: param.Parameterized, tabs: pn.Tabs | None = None) -> "SheetView":
+        """Redraw when any parameter of `source` changes, but only while shown in `tabs`."""
+        names = [name for name in source.param if name != "name"]
+        source.param.watch(self._source_changed, names)
+        if tabs is not None:
+            self._visible = lambda: (0 <= tabs.active < len(tabs.objects)
+                                     and tabs.objects[tabs.active] is self._layout)
+            tabs.param.watch(self._tab_changed, "active")
+        return self
+
+    @classmethod
+    def attach(cls, page, title: str = "Calculation sheet", **params) -> "SheetView":
+        """A view of `page`'s check added as the tab `title` (page: current_inputs, share_url, add_view)."""
+        view = cls(page.current_inputs, page.share_url, **params)
+        page.add_view(title, view)
+        view.follow(page, getattr(page, "views", None))
+        return view
+
+    def _source_changed(self, *events) -> None:
+        self._stale = True
+        if self._visible():
+            self.refresh()
+
+    def _tab_changed(self, event) -> None:
+        if self._stale and self._visible():
+            self.refresh()
+
+    @param.depends("project", "mark", "engineer", "date", watch=True)
+    def _header_changed(self) -> None:
+        self.download.filename = sheet_filename(self.mark)
+        self._stale = True
+        if self._visible():
+            self.refresh()
+
+    # -- drawing ---------------------------------------------------------
+
+    def _qr(self, link: str) -> str | None:
+        if self._qr_for is None or self._qr_for[0] != link:
+            self._qr_for = (link, qr_svg(link) if link else None)
+        return self._qr_for[1]
+
+    def sheet_html(self) -> str:
+        """The calculation sheet for the current inputs; `engine.InputError` if they are bad."""
+        link = self._link()
+        return calculation_sheet(self._inputs(), project=self.project, mark=self.mark,
+                                 engineer=self.engineer, date=self.date, link=link,
+                                 qr_svg=self._qr(link))
+
+    def refresh(self) -> None:
+        """Make the sheet again and show it; bad inputs leave the last sheet with a message."""
+        try:
+            document = self.sheet_html()
+        except (engine.InputError, ArithmeticError) as error:
+            text = str(error) if isinstance(error, engine.InputError) else (
+                f"the engine could not compute these inputs ({type(error).__name__})")
+            self.message.object = messages_html([f"No sheet for these inputs: {text}."])
+            self._stale = False
+            return
+        self._stale = False
+        self.message.object = ""
+        if document != self.document:
+            self.document = document
+            self.frame.object = preview_html(document)
+
+    def _download_file(self) -> io.BytesIO:
+        self.refresh()
+        return io.BytesIO(self.document.encode("utf-8"))
+
+    def __panel__(self):
+        if self._stale:
+            self.refresh()
+        return self._layout
+
+
+def preview_html(document: str) -> str:
+    """`document` inside a sandboxed iframe: escaped into `srcdoc`, no scripts, no navigation."""
+    return (f'<iframe class="rs-sheet" title="Calculation sheet" sandbox="" '
+            f'srcdoc="{html.escape(document, quote=True)}" '
+            f'style="width:100%;height:{PREVIEW_HEIGHT}px;border:1px solid #bbb;'
+            f'background:#fff"></iframe>')
