@@ -60,3 +60,13 @@ BOKEH_MODELS_JS = """
 def bokeh_models(page: Page, kind: str) -> list[dict]:
     """Bokeh models of type `kind` ("Span", "ColumnDataSource") in the page's document."""
     return page.evaluate(BOKEH_MODELS_JS, kind)
+
+
+def open_tab(page: Page, title: str) -> None:
+    """Show the results tab called `title` ("Check", "Size the bars", ...)."""
+    page.locator(".bk-tab", has_text=title).first.click()
+
+
+def source_data(page: Page, name: str) -> dict:
+    """The columns of the ColumnDataSource called `name` in the page's document."""
+    return next(s for s in bokeh_models(page, "ColumnDataSource") if s["name"] == name)["data"]

@@ -163,7 +163,7 @@ def test_plot_is_drawn_with_its_limit_markers(page, app_url, screenshots):
 def test_unit_switch_converts_the_current_values(page, app_url, screenshots):
     open_app(page, app_url)
     old = shown(page, "phiMn")
-    page.get_by_role("button", name="SI").click()
+    page.get_by_role("button", name="SI", exact=True).click()
     wait_for_change(page, "phiMn", old)
     # 1 kip·ft = 1.35581795 kN·m (NIST SP 811, Appendix B.9)
     assert shown_number(page, "phiMn") == pytest.approx(277.41 * 1.35581795, rel=DISPLAY_REL)
