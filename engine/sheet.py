@@ -339,13 +339,13 @@ def _block_step(beam: BeamSection, a: float) -> tuple[SheetStep, float, float]:
                  f"{_given(flange.thickness, L)}) × ({_given(flange.thickness, L)} + "
                  f"{_q(depth, L)})/2] / {_q(area, A)}")
     step = SheetStep("Ac", _AC, eq, sub, _q(area, A), area, "22.2.2.4.1")
-    centroid_step = SheetStep("y_c", "ȳ", f"{y_eq} (depth of {_CC} from the top)", y_sub,
+    centroid_step = SheetStep("y_c", "ȳ", f"{y_eq} (depth of {_CC})", y_sub,
                               _q(centroid, L), centroid, "22.2.2.4.1")
     return step, centroid_step, area
 
 
 def _layer_name(index: int, role: str) -> str:
-    return f"layer {index} ({role})"
+    return f"Layer {index}, {role}"
 
 
 def _layer_steps(beam: BeamSection, r: dict, c: float, b1: float) -> tuple[list[SheetStep], list]:
@@ -384,7 +384,7 @@ def _layer_steps(beam: BeamSection, r: dict, c: float, b1: float) -> tuple[list[
                           f"{_q(shown_strain)} = {_q(shown_stress, S)}")
         shown_force = force if compression else -force
         if inside:
-            force_eq = f"{force_name} = {ai} ({f} − 0.85 {_FC}) (the bar displaces block concrete)"
+            force_eq = f"{force_name} = {ai} ({f} − 0.85 {_FC}), the bar displaces concrete"
             force_sub = (f"{_given(layer.area, A)} × ({_q(shown_stress, S)} "
                          f"{'−' if compression else '+'} 0.85 × {_given(beam.fc, S)}) ÷ 1000"
                          f" = {_kilo(shown_force, u)}")
@@ -392,7 +392,7 @@ def _layer_steps(beam: BeamSection, r: dict, c: float, b1: float) -> tuple[list[
             force_eq = f"{force_name} = {ai} {f}"
             force_sub = (f"{_given(layer.area, A)} × {_q(shown_stress, S)} ÷ 1000"
                          f" = {_kilo(shown_force, u)}")
-        equation = f"{strain_eq}; {f} = {_ES} {e}, at most {_FY}; {force_eq}"
+        equation = f"{strain_eq}; {f} = {_ES} {e} ≤ {_FY}; {force_eq}"
         substituted = f"{strain_sub}; {stress_sub}; {force_sub}"
         key = f"layer{index}"
         yielded = "yields" if state["yields"] else "below yield"
@@ -400,7 +400,7 @@ def _layer_steps(beam: BeamSection, r: dict, c: float, b1: float) -> tuple[list[
                   f"{f} = {_span(key + '_stress', stress, _q(shown_stress, S))} ({yielded})<br>"
                   f"{force_name} = {_span(key + '_force', force, _kilo(shown_force, u))}")
         role = "compression" if compression else "tension"
-        quantity = f"{_layer_name(index, role)}: {_given(layer.area, A)} at {_given(layer.depth, L)}"
+        quantity = _layer_name(index, role)
         clause = "22.2.1.2, 20.2.2.1" + (", 22.2.2.4.1" if inside else "")
         steps.append(SheetStep(key, quantity, equation, substituted, result, stress, clause,
                                keyed_result=True))
@@ -431,7 +431,7 @@ def _general_strength_steps(result: FlexuralCheck, r: dict, given_dt: bool) -> l
         dt_sub = "max(" + ", ".join(_given(t.depth, L) for t in tension) + ")"
     steps.append(SheetStep(
         "dt", _DT, f"{_DT} = depth of the extreme tension steel", dt_sub, _given(r["dt"], L),
-        r["dt"], "2.2 (notation), 21.2.2"))
+        r["dt"], "2.2, 21.2.2"))
     block, centroid_step, area = _block_step(beam, a)
     concrete = block_force(beam, a)[0]
     layer_steps, forces = _layer_steps(beam, r, c, b1)
@@ -441,19 +441,19 @@ def _general_strength_steps(result: FlexuralCheck, r: dict, given_dt: bool) -> l
         f" {'+' if f > 0 else '−'} {_kilo(abs(f), u)}" for _, _, f in forces)
     steps.append(SheetStep(
         "c", "c",
-        f"{_CC} + Σ C = Σ T, strains linear from {_EPS_CU} at the top: "
-        f"ε(y) = {_EPS_CU} (y − c) / c; solved for c &gt; 0",
+        f"{_CC} + Σ C = Σ T, ε(y) = {_EPS_CU} (y − c) / c; solved for c",
         f"{_kilo(concrete + compression_sum, u)} = {_kilo(tension_sum, u)} at c = {_q(c, L)} "
         f"(the force balance below)",
         _q(c, L), c, "22.2.1.1, 22.2.1.2, 22.2.2.1"))
     steps.append(SheetStep("a", "a", f"a = {_B1} c", f"{_q(b1, digits=3)} × {_q(c, L)}",
                            _q(a, L), a, "22.2.2.4.1"))
     steps.append(block)
-    steps.append(centroid_step)
+    centroid = centroid_step.value
     steps.append(SheetStep(
-        "Cc", _CC, f"{_CC} = 0.85 {_FC} {_AC}",
-        f"0.85 × {_given(beam.fc, S)} × {_q(area, A)} ÷ 1000",
-        _kilo(concrete, u), concrete, "22.2.2.4.1"))
+        "Cc", _CC, f"{_CC} = 0.85 {_FC} {_AC}, at {centroid_step.equation}",
+        f"0.85 × {_given(beam.fc, S)} × {_q(area, A)} ÷ 1000; ȳ = {centroid_step.substituted}",
+        f"{_span('Cc', concrete, _kilo(concrete, u))}<br>ȳ = {_span('y_c', centroid, _q(centroid, L))}",
+        concrete, "22.2.2.4.1", keyed_result=True))
     steps += layer_steps
     residual = concrete + sum(f for _, _, f in forces)
     scale = max(concrete, tension_sum, 1e-300)
@@ -531,9 +531,8 @@ def _general_limit_step(beam: BeamSection, r: dict, key: str, area_key: str, nam
         else:
             fixed += force
     mean_stress = -tension / beam.As  # the tension layers' mean stress at this c
-    equation = (f"{name} = {_AS} / ({_BW} d), {_AS} = ({_CC} + Σ C) / f̄<sub>s</sub>; "
-                f"c = {_EPS_CU} {_DT} / ({_EPS_CU} + {_EPS_T}), a = {_B1} c, "
-                f"f̄<sub>s</sub> the tension layers' mean stress")
+    equation = (f"{name} = {_AS} / ({_BW} d); {_AS} = ({_CC} + Σ C) / f̄<sub>s</sub> at "
+                f"c = {_EPS_CU} {_DT} / ({_EPS_CU} + {_EPS_T}) (f̄<sub>s</sub>: mean stress)")
     depth = (f"c = {EPS_CU} × {_given(beam.dt, L)} / ({EPS_CU} + {_q(strain)}) = {_q(c, L)}; "
              f"a = {_q(b1 * c, L)}")
     quantity = f"{name} at {_EPS_T} = {strain_text}"
@@ -612,7 +611,7 @@ td { overflow-wrap: anywhere; }
 .header td { border: none; padding: 0.2mm 1.2mm; }
 .label { color: #444; width: 1%; white-space: nowrap; }
 .steps td.result { font-weight: 600; min-width: 22mm; }
-.steps td.clause { color: #333; }
+.steps td.clause { color: #333; overflow-wrap: normal; }
 .steps td.quantity { width: 14mm; }
 .pass { color: #0a5d1e; font-weight: 700; }
 .fail { color: #a40e0e; font-weight: 700; }
@@ -629,11 +628,12 @@ section, table, tr, .footer { page-break-inside: avoid; break-inside: avoid; }
 h2 { page-break-after: avoid; break-after: avoid; }
 @page { size: auto; margin: 10mm; }
 @media print {
-  body { font-size: 7pt; line-height: 1.2; }
+  body { font-size: 6.6pt; line-height: 1.15; }
   main { max-width: none; margin: 0; padding: 0; }
   h1 { font-size: 10pt; }
   h2 { font-size: 8pt; margin: 1.5mm 0 0.3mm; }
   th, td { padding: 0.2mm 0.8mm; }
+  .steps td.clause { width: 17mm; }
   .footer svg { width: 20mm; height: 20mm; }
 }
 """
