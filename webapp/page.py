@@ -159,8 +159,7 @@ class BeamCheckPage(pn.viewable.Viewer):
                 self.apply_link(location.search)
         self._refresh()
         self.sheet_view = SheetView.attach(self, "Calculation sheet")
-        self.schedule_view = ScheduleView()
-        self.add_view("Beam schedule", self.schedule_view)
+        self.schedule_view = ScheduleView.attach(self, "Beam schedule")
 
     # -- state -----------------------------------------------------------
 

@@ -18,7 +18,7 @@ import asyncio
 import html
 import io
 import math
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 
 import panel as pn
 import param
@@ -33,6 +33,7 @@ from .theme import TEXT_CSS
 CHUNK = 50  # rows per step between yields: ~5 ms in CPython, a few tens in Pyodide
 MAX_NOTES = 25  # notes listed; the rest are counted
 MAX_UPLOAD_BYTES = 20_000_000
+TABLE_HEIGHT = 420  # px; longer schedules scroll inside the table
 
 COLUMNS = (  # (field, title, formatter kind, width)
     ("row", "Row", "int", 50), ("mark", "Mark", "text", 80), ("units", "Units", "text", 50),
@@ -117,11 +118,16 @@ class ScheduleView(pn.viewable.Viewer):
             source=self.source, sortable=True, reorderable=False, index_position=None,
             columns=[TableColumn(field=f, title=t, formatter=_formatter(k), width=w)
                      for f, t, k, w in COLUMNS],
-            height=420, sizing_mode="stretch_width", name="schedule_table")
+            height=TABLE_HEIGHT, sizing_mode="stretch_width", name="schedule_table")
+        # SlickGrid (the DataTable's grid) fails to start inside a hidden tab, and its
+        # error stops the whole page from rendering; so the table joins the layout only
+        # once there is something to show and the view is on screen.
+        self.table_slot = pn.Column(sizing_mode="stretch_width")
+        self._visible: Callable[[], bool] = lambda: True
         self.download = pn.widgets.FileDownload(
             callback=self._download_file, filename="schedule-results.csv",
             label="Download results (CSV)", color="primary", icon="download",
-            disabled=True, css_classes=["rs-schedule-download"])
+            disabled=True, css_classes=["rs-schedule-download"], width=220)
         self._layout = pn.Column(
             pn.pane.HTML(
                 "<h3>Beam schedule</h3><div class=\"rs-note\">One beam a row, with a header "
@@ -132,8 +138,31 @@ class ScheduleView(pn.viewable.Viewer):
                                 stylesheets=[TEXT_CSS], width=130), self.upload),
             self.paste, pn.Row(self.run_button, self.download),
             self.progress, self.status, self.summary,
-            pn.pane.Bokeh(self.table, sizing_mode="stretch_width"), self.notes,
+            self.table_slot, self.notes,
             sizing_mode="stretch_width")
+
+    # -- wiring ----------------------------------------------------------
+
+    def follow(self, tabs: pn.Tabs) -> "ScheduleView":
+        """Add the table only while this view is the active tab of `tabs`."""
+        self._visible = lambda: (0 <= tabs.active < len(tabs.objects)
+                                 and tabs.objects[tabs.active] is self._layout)
+        tabs.param.watch(lambda event: self._place_table(), "active")
+        return self
+
+    @classmethod
+    def attach(cls, page, title: str = "Beam schedule", **params) -> "ScheduleView":
+        """A schedule view added to `page` as the tab `title` (page: add_view, views)."""
+        view = cls(**params)
+        page.add_view(title, view)
+        tabs = getattr(page, "views", None)
+        if tabs is not None:
+            view.follow(tabs)
+        return view
+
+    def _place_table(self) -> None:
+        if not self.table_slot.objects and self.schedule is not None and self._visible():
+            self.table_slot.append(pn.pane.Bokeh(self.table, sizing_mode="stretch_width"))
 
     # -- input -----------------------------------------------------------
 
@@ -203,11 +232,13 @@ class ScheduleView(pn.viewable.Viewer):
         with pn.io.hold():
             self.schedule = schedule
             self.source.data = table_data(schedule.rows)
+            self.table.height = min(TABLE_HEIGHT, 32 + 26 * max(len(schedule.rows), 1))
             self.progress.visible = False
             self.status.object = ""
             self.summary.object = summary_html(schedule)
             self.notes.object = notes_html(schedule.notes())
             self.download.disabled = False
+            self._place_table()
 
     def results_csv(self) -> str:
         """The engine's CSV of the last checked schedule ("" before any)."""

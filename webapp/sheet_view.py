@@ -77,17 +77,17 @@ class SheetView(pn.viewable.Viewer):
         self.download = pn.widgets.FileDownload(
             callback=self._download_file, filename=sheet_filename(self.mark),
             label="Download sheet (HTML)", color="primary", icon="download",
-            css_classes=["rs-sheet-download"], sizing_mode="stretch_width")
+            css_classes=["rs-sheet-download"], width=240, margin=(8, 10))
         self.message = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
                                     css_classes=["rs-sheet-message"])
         self.frame = pn.pane.HTML("", sizing_mode="stretch_width", min_height=PREVIEW_HEIGHT,
                                   css_classes=["rs-sheet-frame"], margin=(4, 0))
         self._layout = pn.Column(
             pn.Row(*self.fields.values(), sizing_mode="stretch_width"),
-            pn.Row(self.download, pn.pane.HTML(
-                '<div class="rs-note">One self-contained HTML file: open it and print it '
-                'from the browser (Letter or A4).</div>', stylesheets=[TEXT_CSS]),
-                sizing_mode="stretch_width"),
+            self.download,
+            pn.pane.HTML('<div class="rs-note">One self-contained HTML file: open it and print '
+                         'it from the browser (Letter or A4).</div>', stylesheets=[TEXT_CSS],
+                         sizing_mode="stretch_width", margin=(0, 10)),
             self.message, self.frame, sizing_mode="stretch_width")
 
     # -- wiring ----------------------------------------------------------
