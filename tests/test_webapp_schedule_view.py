@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import asyncio
 import math
+from concurrent.futures import ThreadPoolExecutor
 from pathlib import Path
 
 import pytest
@@ -21,8 +22,18 @@ DEMO = (DATA / "harbourline_schedule.csv").read_text(encoding="utf-8")
 MIXED = (DATA / "harbourline_schedule_mixed.csv").read_text(encoding="utf-8")
 
 
+def run_async(make_coroutine):
+    """Run a coroutine to its end in a thread of its own.
+
+    The browser tests' Playwright session keeps an event loop running in the
+    main thread for the rest of the pytest process, where `asyncio.run` refuses.
+    """
+    with ThreadPoolExecutor(max_workers=1) as pool:
+        return pool.submit(lambda: asyncio.run(make_coroutine())).result()
+
+
 def run(view: ScheduleView, text: str):
-    return asyncio.run(view.run(text))
+    return run_async(lambda: view.run(text))
 
 
 def test_uploaded_text_becomes_the_engines_rows():
@@ -106,7 +117,7 @@ def test_a_new_run_cancels_one_still_going():
         second = await view.run(DEMO)
         return await first, second
 
-    first, second = asyncio.run(both())
+    first, second = run_async(both)
     assert first is None and len(second.rows) == 13
     assert len(view.source.data["mark"]) == 13
 
