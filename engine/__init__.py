@@ -6,9 +6,10 @@ Standard library only, no I/O. The same code runs in CPython and in Pyodide.
 from .arrangement import Arrangement, arrange
 from .bars import Bar, bar, standard_bars
 from .checks import CAUTION, CodeCheck, FlexuralCheck, check, check_beam
-from .design import BarOption, DesignResult, DesignSection, FailedRule, design_section, detailing_checks
-from .detailing import Exposure, Support
 from .curve import CapacityCurve, capacity_curve, curve_for_beam
+from .design import (BarOption, DesignResult, DesignSection, FailedRule, design_section,
+                     detailing_checks)
+from .detailing import Exposure, Support
 from .errors import InputError, RhoscopeError
 from .flange_width import effective_flange_width
 from .section import BeamSection, Flange, Role, SteelLayer, beam_section, rectangular_beam
@@ -18,10 +19,10 @@ from .units import SI, US, UnitSystem, convert, unit_system
 __version__ = "0.1.0"
 
 __all__ = [
-    "CAUTION", "BeamSection", "CapacityCurve", "CodeCheck", "Flange", "FlexuralCheck", "InputError",
-    "RhoscopeError", "Role", "SI", "SectionClass", "SteelLayer", "US", "UnitSystem", "beam_section",
-    "capacity_curve", "check", "check_beam", "convert", "curve_for_beam",
-    "effective_flange_width", "rectangular_beam", "unit_system",
-    "Arrangement", "Bar", "BarOption", "DesignResult", "DesignSection", "Exposure", "FailedRule",
-    "Support", "arrange", "bar", "design_section", "detailing_checks", "standard_bars",
+    "CAUTION", "Arrangement", "Bar", "BarOption", "BeamSection", "CapacityCurve", "CodeCheck",
+    "DesignResult", "DesignSection", "Exposure", "FailedRule", "Flange", "FlexuralCheck",
+    "InputError", "RhoscopeError", "Role", "SI", "SectionClass", "SteelLayer", "Support", "US",
+    "UnitSystem", "arrange", "bar", "beam_section", "capacity_curve", "check", "check_beam",
+    "convert", "curve_for_beam", "design_section", "detailing_checks", "effective_flange_width",
+    "rectangular_beam", "standard_bars", "unit_system",
 ]
