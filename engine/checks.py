@@ -16,7 +16,7 @@ from .flexure import FlexuralState, analyse
 from .limits import EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits
 from .required_steel import required_steel
 from .scope import scope_warnings
-from .section import BeamSection, beam_section
+from .section import BeamSection, Role, beam_section
 from .strength_reduction import STRAIN_ROUNDING
 from .validation import hard_maximum, in_range
 
@@ -130,9 +130,13 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
         As_req = _required_steel(beam, Mu)
     warnings = scope_warnings(beam)
     if not state.steel_yields:
+        u = beam.system
+        elastic = [f"{ls.stress:.5g} {u.stress} at {ls.layer.depth:g} {u.length}"
+                   for ls in state.layers if ls.layer.role is Role.TENSION
+                   and not (ls.yields and ls.stress > 0)]
         warnings += (
-            f"The tension steel does not yield (fs = {state.fs:.4g} < fy = {beam.fy:g} "
-            f"{beam.system.stress}); c found by strain compatibility (ACI 318-19 22.2.1.2, 20.2.2.1).",)
+            f"Tension steel does not yield (fs = {', '.join(elastic)}; fy = {beam.fy:g} {u.stress}); "
+            f"c found by strain compatibility (ACI 318-19 22.2.1.2, 20.2.2.1).",)
     checks = (_minimum_steel_check(beam, limits, As_req),
               _strain_limit_check(state))
     if Mu is not None:
@@ -153,7 +157,8 @@ def _minimum_steel_check(beam: BeamSection, limits: ReinforcementLimits,
         return CodeCheck("9.6.1.2", "As ≥ As,min", True,
                          f"As = {beam.As:.4g} {area} ≥ As,min = {As_min:.4g} {area} "
                          f"({limits.As_min.governing} governs)")
-    if As_req is not None and beam.As >= 4 / 3 * As_req:
+    # 9.6.1.3 rests on a demand found by analysis: with none (Mu = 0) it waives nothing.
+    if As_req is not None and As_req > 0 and beam.As >= 4 / 3 * As_req:
         return CodeCheck("9.6.1.3", "As ≥ As,min, or As ≥ 4/3 As,req", True,
                          f"As = {beam.As:.4g} {area} < As,min = {As_min:.4g} {area}, but "
                          f"As ≥ 4/3 × As,req = {4 / 3 * As_req:.4g} {area}, so 9.6.1.2 is waived")

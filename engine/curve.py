@@ -11,7 +11,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .checks import check_beam
+from .limits import reinforcement_limits
 from .flexure import capacity_point
 from .section import BeamSection, beam_section
 from .strength_reduction import PHI_TENSION_CONTROLLED, SectionClass
@@ -24,7 +24,9 @@ _PAST_BALANCED = 1.5  # the curve ends at 1.5 ρb (or past the section's own ρ)
 class CapacityCurve:
     """Columns of equal length, ordered by ρ; moments in kip·ft or kN·m.
 
-    At ρ = 0 there is no steel: Mn = φMn = 0, φ = 0.90 and εt is infinite.
+    At ρ = 0 a section with tension steel only has no strength: Mn = φMn = 0,
+    φ = 0.90 and εt is infinite. A section with other steel starts at the
+    first ρ > 0 instead, since its strength does not vanish there.
     """
 
     rho: tuple[float, ...]
@@ -40,7 +42,9 @@ class CapacityCurve:
         columns = {name: list(getattr(self, name)) for name in
                    ("rho", "As", "Mn", "phiMn", "phi", "section_class")}
         columns["eps_t"] = [None if math.isinf(e) else e for e in self.eps_t]
-        return {**columns, "marks": dict(self.marks)}
+        # A limit no steel area can reach is infinite; JSON has no infinity, so null.
+        marks = {name: None if math.isinf(rho) else rho for name, rho in self.marks.items()}
+        return {**columns, "marks": marks}
 
 
 def capacity_curve(*, points: int = DEFAULT_POINTS, **inputs) -> CapacityCurve:
@@ -51,17 +55,19 @@ def capacity_curve(*, points: int = DEFAULT_POINTS, **inputs) -> CapacityCurve:
 
 def curve_for_beam(beam: BeamSection, points: int = DEFAULT_POINTS) -> CapacityCurve:
     """The curve for an already validated beam, `points` evenly spaced ratios plus the marks."""
-    result = check_beam(beam)
-    limits = result.limits
+    limits = reinforcement_limits(beam)
+    bd = beam.bw * beam.d
+    rho_section = beam.As / bd
     marks = {"rho_min": limits.rho_min, "rho_tc": limits.rho_tc, "rho_max": limits.rho_max,
-             "rho_b": limits.rho_b, "rho": result.rho}
-    bd = beam.b * beam.d
+             "rho_b": limits.rho_b, "rho": rho_section}
     # A limit no steel area can reach (dt far below d) is infinite: the curve
     # then ends past the largest limit that is finite.
     finite_limits = [rho for rho in (limits.rho_b, limits.rho_max, limits.rho_tc) if math.isfinite(rho)]
-    rho_end = max(_PAST_BALANCED * max(finite_limits, default=result.rho), 1.1 * result.rho)
+    rho_end = max(_PAST_BALANCED * max(finite_limits, default=rho_section), 1.1 * rho_section)
     finite_marks = {rho for rho in marks.values() if math.isfinite(rho)}
     ratios = sorted({rho_end * i / (points - 1) for i in range(points)} | finite_marks)
+    if len(beam.tension_layers) != len(beam.layers):
+        ratios = [rho for rho in ratios if rho > 0]
     to_quoted = 1.0 / beam.system.moment_to_base
     columns: dict[str, list] = {name: [] for name in
                                 ("rho", "As", "Mn", "phiMn", "phi", "eps_t", "section_class")}

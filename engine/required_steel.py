@@ -13,6 +13,7 @@ from .strength_reduction import (PHI_TENSION_CONTROLLED, TENSION_CONTROL_MARGIN,
 
 _GRID = 24  # transition-zone scan: there φMn may fall as As rises
 _RELATIVE_TOLERANCE = 1e-12
+_NEGLIGIBLE = 1e-9  # of the tension-controlled area: "no tension steel" without dividing by zero
 
 
 def design_moment(beam: BeamSection, As: float) -> float:
@@ -31,7 +32,7 @@ def required_steel(beam: BeamSection, Mu_base: float) -> float | None:
     """
     # A demand this far below the section's scale needs no steel to twelve
     # digits; going on would only push areas into floating-point underflow.
-    if Mu_base <= _RELATIVE_TOLERANCE * beam.fy * beam.As * beam.d:
+    if Mu_base <= _RELATIVE_TOLERANCE * beam.fy * beam.bw * beam.d**2:
         return 0.0
     closed_form = _tension_controlled_steel(beam, Mu_base)
     if closed_form is not None:
@@ -40,6 +41,10 @@ def required_steel(beam: BeamSection, Mu_base: float) -> float | None:
     eps_ty = yield_strain(beam.fy, beam.es)
     As_tc = min(steel_for_strain(beam, eps_ty + TENSION_CONTROL_MARGIN), As_limit)
     shortfall = lambda As: design_moment(beam, As) - Mu_base  # noqa: E731
+    # Other layers (say, "compression" steel below the neutral axis) may carry
+    # Mu with next to no tension steel: then none is required.
+    if As_tc > 0 and shortfall(_NEGLIGIBLE * As_tc) >= 0:
+        return 0.0
     if As_tc > 0 and shortfall(As_tc) >= 0:
         return _least_root(shortfall, 0.0, -Mu_base, As_tc, shortfall(As_tc), Mu_base)
     below, f_below = As_tc, shortfall(As_tc) if As_tc > 0 else -Mu_base
@@ -101,6 +106,11 @@ def _tension_controlled_steel(beam: BeamSection, Mu_base: float) -> float | None
     eps_ty = yield_strain(beam.fy, beam.es)
     yielded = EPS_CU * (beam.d - c) >= eps_ty * c
     eps_t = EPS_CU * (beam.dt - c) / c
-    if yielded and section_class(eps_t, eps_ty) is SectionClass.TENSION_CONTROLLED:
-        return As
-    return None
+    if not (yielded and section_class(eps_t, eps_ty) is SectionClass.TENSION_CONTROLLED):
+        return None
+    # The root can land an ulp short of the demand; the least As must meet it.
+    for _ in range(8):
+        if design_moment(beam, As) >= Mu_base:
+            break
+        As = math.nextafter(As, math.inf)
+    return As

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import argparse
 import json
+import math
 
 from ..checks import CAUTION, FlexuralCheck, check
 from ..curve import DEFAULT_POINTS, capacity_curve
@@ -38,6 +39,11 @@ def run_curve(args: argparse.Namespace) -> str:
                      zip(curve.rho, curve.phiMn, curve.phi, curve.section_class))
 
 
+def _ratio(rho: float) -> str:
+    """A limit ratio, or why there is none."""
+    return "not reachable" if math.isinf(rho) else f"{rho:.5f}"
+
+
 def summary(result: FlexuralCheck) -> str:
     """A readable, plain-text account of one check."""
     beam, s, lim = result.beam, result.state, result.limits
@@ -59,12 +65,12 @@ def summary(result: FlexuralCheck) -> str:
         "",
         f"  β1 = {s.beta1:.3f}   εty = {s.eps_ty:.5f}",
         f"  c = {s.c:.4g} {u.length}   a = {s.a:.4g} {u.length}   εt = {s.eps_t:.5f}"
-        f"   fs = {s.fs:.5g} {u.stress} ({'yields' if s.steel_yields else 'does not yield'})",
+        f"   fs = {s.fs:.5g} {u.stress} ({'yields' if s.fs >= beam.fy else 'below yield'})",
         f"  Mn = {result.Mn:.4g} {u.moment}   φ = {s.phi:.3f}   φMn = {result.phiMn:.4g} {u.moment}",
         f"  class: {s.section_class.value}",
         "",
-        f"  ρ = {result.rho:.5f}   ρmin = {lim.rho_min:.5f}   ρtc = {lim.rho_tc:.5f}"
-        f"   ρ(εt=0.004) = {lim.rho_max:.5f}   ρb = {lim.rho_b:.5f}",
+        f"  ρ = {result.rho:.5f}   ρmin = {lim.rho_min:.5f}   ρtc = {_ratio(lim.rho_tc)}"
+        f"   ρ(εt=0.004) = {_ratio(lim.rho_max)}   ρb = {_ratio(lim.rho_b)}",
     ]
     if result.Mu is not None:
         lines.append(f"  Mu = {result.Mu:g} {u.moment}   Mu/φMn = {result.utilization:.3f}")
