@@ -14,10 +14,11 @@ from functools import cached_property
 
 from .flexure import FlexuralState, analyse
 from .limits import EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits
-from .required_steel import required_steel
+from .required_steel import required_steel_for
 from .scope import scope_warnings
 from .section import BeamSection, Role, beam_section
 from .strength_reduction import STRAIN_ROUNDING
+from .units import quoted_moment
 from .validation import hard_maximum, in_range
 
 CAUTION = (
@@ -122,8 +123,7 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
     """`check` for an already validated beam; `Mu` in kip·ft or kN·m."""
     state = analyse(beam)
     limits = reinforcement_limits(beam)
-    to_quoted = 1.0 / beam.system.moment_to_base
-    Mn = state.Mn_base * to_quoted
+    Mn = quoted_moment(state.Mn_base, beam.system)
     phiMn = state.phi * Mn
     As_req = None
     if Mu is not None and beam.As < limits.As_min.value:  # only 9.6.1.3 needs it
@@ -146,7 +146,7 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
 
 
 def _required_steel(beam: BeamSection, Mu: float | None) -> float | None:
-    return None if Mu is None else required_steel(beam, Mu * beam.system.moment_to_base)
+    return None if Mu is None else required_steel_for(beam, Mu)
 
 
 def _minimum_steel_check(beam: BeamSection, limits: ReinforcementLimits,

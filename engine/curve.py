@@ -12,6 +12,7 @@ import math
 from dataclasses import dataclass
 
 from .limits import reinforcement_limits
+from .units import quoted_moment
 from .flexure import capacity_point
 from .section import BeamSection, beam_section
 from .strength_reduction import PHI_TENSION_CONTROLLED, SectionClass
@@ -68,7 +69,6 @@ def curve_for_beam(beam: BeamSection, points: int = DEFAULT_POINTS) -> CapacityC
     ratios = sorted({rho_end * i / (points - 1) for i in range(points)} | finite_marks)
     if len(beam.tension_layers) != len(beam.layers):
         ratios = [rho for rho in ratios if rho > 0]
-    to_quoted = 1.0 / beam.system.moment_to_base
     columns: dict[str, list] = {name: [] for name in
                                 ("rho", "As", "Mn", "phiMn", "phi", "eps_t", "section_class")}
     for rho in ratios:
@@ -77,7 +77,7 @@ def curve_for_beam(beam: BeamSection, points: int = DEFAULT_POINTS) -> CapacityC
                    SectionClass.TENSION_CONTROLLED.value)
         else:
             point = capacity_point(beam.with_tension_area(rho * bd))
-            Mn = point.Mn_base * to_quoted
+            Mn = quoted_moment(point.Mn_base, beam.system)
             row = (rho, rho * bd, Mn, point.phi * Mn, point.phi, point.eps_t,
                    point.section_class.value)
         for column, value in zip(columns.values(), row):

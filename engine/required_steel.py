@@ -8,6 +8,7 @@ from .flexure import capacity_point
 from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
 from .materials import BLOCK_STRESS_FACTOR, EPS_CU, beta1, yield_strain
 from .section import BeamSection
+from .units import quoted_moment
 from .strength_reduction import (PHI_TENSION_CONTROLLED, TENSION_CONTROL_MARGIN, SectionClass,
                                  section_class)
 
@@ -20,6 +21,24 @@ def design_moment(beam: BeamSection, As: float) -> float:
     """φMn in base units for `beam` with `As` of tension steel."""
     point = capacity_point(beam.with_tension_area(As))
     return point.phi * point.Mn_base
+
+
+def required_steel_for(beam: BeamSection, Mu: float) -> float | None:
+    """`required_steel` for Mu in kip·ft or kN·m, meeting Mu as the check reports φMn.
+
+    The search works in base units; converting φMn back can lose an ulp, so
+    the area is nudged up until the quoted φMn, computed as `check` computes
+    it, is not below Mu.
+    """
+    As = required_steel(beam, Mu * beam.system.moment_to_base)
+    if not As:
+        return As
+    for _ in range(8):
+        point = capacity_point(beam.with_tension_area(As))
+        if point.phi * quoted_moment(point.Mn_base, beam.system) >= Mu:
+            break
+        As = math.nextafter(As, math.inf)
+    return As
 
 
 def required_steel(beam: BeamSection, Mu_base: float) -> float | None:

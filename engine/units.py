@@ -61,6 +61,14 @@ def unit_system(name: object) -> UnitSystem:
     return SYSTEMS[key]
 
 
+def quoted_moment(moment_base: float, system: UnitSystem) -> float:
+    """A moment in base force·length (lb·in, N·mm) in the quoted unit (kip·ft, kN·m).
+
+    Every moment a user sees goes through here, so two results compare alike.
+    """
+    return moment_base / system.moment_to_base
+
+
 def convert(value: float, quantity: str, source: UnitSystem, target: UnitSystem) -> float:
     """`value`, a `quantity` ("stress", "length", "area", "moment") in `source`, in `target`."""
     if source == target:
