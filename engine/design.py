@@ -430,7 +430,7 @@ def _section_checks(section: DesignSection) -> tuple[CodeCheck, ...]:
         passed = section.h >= h_min
         checks.append(CodeCheck(
             "Table 9.3.1.1", "minimum depth without a deflection calculation", passed,
-            f"h = {section.h:g} {L} {'≥' if passed else '<'} {h_min:.3g} {L} for a "
+            f"h = {section.h:g} {L} {'≥' if passed else '<'} {h_min:,.4g} {L} for a "
             f"{section.support.value} span of {section.span:g} {L} (9.3.1.1.1 factor for fy "
             f"included; normalweight concrete; members not supporting construction likely to "
             f"be damaged by deflection){'' if passed else '; otherwise calculate deflections (24.2)'}"))
@@ -458,16 +458,22 @@ def _verdict(section: DesignSection, feasible: bool, phiMn_max: float, d_deepest
             f"{phiMn_max:.4g} {u.moment}.")
     fc_needed = _concrete_needed(section, d_deepest)
     remedies = (
-        f"a deeper section: about h = {section.h + d_needed - d_deepest:.3g} {u.length} "
-        f"(φMn,max grows with d²)",
-        f"a wider section: about b = {section.b * ratio:.3g} {u.length} (φMn,max grows with b), "
-        f"if the bars then fit",
+        f"a deeper section: about h = {_rounded_up(section.h + d_needed - d_deepest, u)} "
+        f"{u.length} (φMn,max grows with d²)",
+        f"a wider section: about b = {_rounded_up(section.b * ratio, u)} {u.length} "
+        f"(φMn,max grows with b), if the bars then fit",
         ("stronger concrete: f'c of about "
          f"{fc_needed:,.0f} {u.stress}" if fc_needed is not None else
          "stronger concrete alone does not reach Mu at this size"),
         "compression reinforcement (a doubly reinforced section; not yet designed here)",
     )
     return text, remedies
+
+
+def _rounded_up(length: float, system: UnitSystem) -> str:
+    """A size to suggest: up to the next 1/2 in or 10 mm, so it is never the size given."""
+    step = 0.5 if system.name == "us" else 10.0
+    return f"{math.floor(length / step + 1) * step:g}"
 
 
 def _concrete_needed(section: DesignSection, d: float) -> float | None:
@@ -525,24 +531,36 @@ def _validated(*, units, fc, fy, b, h, Mu, cover, stirrup, agg, layers, layer_ga
     exposure_value = _one_of("exposure", exposure, Exposure)
     stirrup_bar = standard_bar("stirrup", DEFAULT_STIRRUP[system.name] if stirrup is None
                                else stirrup, system, STIRRUP_NUMBERS[system.name])
+    tried = standard_bars(system) if bars is None else standard_bars_in("bars", bars, system)
     if cover is None:
-        cover_value = minimum_cover(system, exposure_value, stirrup_bar)
+        # Table 20.5.1.3.1 applies to the stirrup and to the bars inside it: the
+        # default clear cover to the stirrup satisfies both, for every bar tried.
+        cover_value = max([minimum_cover(system, exposure_value, stirrup_bar)]
+                          + [minimum_cover(system, exposure_value, bar) - stirrup_bar.db
+                             for bar in tried])
     else:
         cover_value = in_range("cover", cover, length, max_length)
     agg_value = DEFAULT_AGGREGATE[system.name] if agg is None else in_range(
         "agg", agg, length, max_length)
     if isinstance(layers, bool) or layers not in (1, 2):
         raise InputError("layers", layers, "1 or 2")
+    # The upper layer must stay near the tension face: a gap of a quarter of h
+    # is far past any detailing practice, and more would lift it out of the web.
     gap_value = minimum_layer_gap(system) if layer_gap is None else in_range(
         "layer_gap", layer_gap, length, max_length)
-    fs_value = service_stress(fy_value) if fs is None else in_range("fs", fs, stress, fy_value)
+    if gap_value > h_value / 4:
+        raise InputError("layer_gap", layer_gap, f"at most h/4 = {h_value / 4:g} {length}",
+                         why="the upper layer must stay near the tension face")
+    fs_value = service_stress(fy_value) if fs is None else in_range("fs", fs, stress, max_length**2)
+    if fs_value > fy_value:
+        raise InputError("fs", fs, f"at most fy = {fy_value:g} {stress}",
+                         why="the service stress of 24.3.2 cannot exceed yield")
     if (span is None) != (support is None):
         missing = "span" if span is None else "support"
         raise InputError(missing, None, "a value whenever "
                          f"{'support' if missing == 'span' else 'span'} is given (Table 9.3.1.1)")
     span_value = None if span is None else in_range("span", span, length, max_length)
     support_value = None if support is None else _one_of("support", support, Support)
-    tried = standard_bars(system) if bars is None else standard_bars_in("bars", bars, system)
     inside = 2 * side_cover(cover_value, stirrup_bar)
     if b_value <= inside:
         raise InputError("b", b, f"more than 2 × (cover + stirrup) = {inside:g} {length}",

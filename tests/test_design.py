@@ -142,10 +142,19 @@ def test_user_cover_below_the_table_fails_every_option():
 def test_exposed_beam_needs_2_in_on_bars_6_and_larger():
     # Table 20.5.1.3.1, exposed: #6–#18 need 2 in; with 1.5 in to a #3 stirrup they have 1.875.
     result = engine.design_section(units="us", fc=4000, fy=60000, b=16, h=24, Mu=150,
-                                   exposure="exposed")
+                                   exposure="exposed", cover=1.5)
     for option in result.options:
         breaks_cover = "20.5.1.3.1" in [r.clause for r in option.failed_rules]
         assert breaks_cover == (option.bar.number >= 6), option.label
+
+
+def test_default_exposed_cover_suits_every_bar_tried():
+    # Table 20.5.1.3.1, exposed: 2 in to #6 and larger bars, 1.5 in to a #3 stirrup: the
+    # default clear cover to the stirrup is then 2 − 0.375 = 1.625 in, and no bar breaks it.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=16, h=24, Mu=150,
+                                   exposure="exposed")
+    assert result.section.cover == pytest.approx(1.625)
+    assert not any("20.5.1.3.1" in [r.clause for r in o.failed_rules] for o in result.options)
 
 
 def test_layer_gap_below_25_2_2_fails_two_layer_options():
@@ -342,3 +351,24 @@ def test_nothing_lighter_that_works_is_missing(inputs):
     assert lightest is None, f"missing a lighter arrangement {lightest}; best {best and best.label}"
     if best is None:
         assert not any(o.ok for o in result.options)
+
+
+def test_a_layer_gap_past_a_quarter_of_h_is_refused():
+    # 25.2.2 sets the least clear distance between layers; a 30 in gap in a 24 in beam would
+    # put the upper layer above the top (common practice: layers stay near the tension face).
+    with pytest.raises(engine.InputError, match=r"^layer_gap: .*at most h/4 = 6 in"):
+        engine.design_section(units="us", fc=4000, fy=60000, b=14, h=24, Mu=190, layer_gap=30)
+
+
+def test_service_stress_above_yield_is_refused():
+    # ACI 318-19 24.3.2.1: fs is the stress at service loads, which cannot exceed fy.
+    with pytest.raises(engine.InputError, match=r"^fs: .*at most fy = 60000 psi"):
+        engine.design_section(units="us", fc=4000, fy=60000, b=14, h=24, Mu=190, fs=70000)
+
+
+def test_a_suggested_size_is_never_the_size_given():
+    # Mu just past φMn,max of a 14 × 24 in section: the ways out must name a bigger section.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=14, h=24, Mu=462)
+    assert not result.feasible
+    deeper, wider = result.remedies[0], result.remedies[1]
+    assert "h = 24 in" not in deeper and "b = 14 in" not in wider

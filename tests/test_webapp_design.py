@@ -89,7 +89,7 @@ def test_design_inputs_travel_in_the_link(page):
         2.0, "#4", 1, 300.0, "simple")
     assert all(o.layers == 1 for o in view.result.options)
     # Table 9.3.1.1: simply supported, h ≥ ℓ/16 = 18.75 in for fy = 60,000 psi.
-    assert "Table 9.3.1.1" in view.detail.object and "18.8" in view.detail.object
+    assert "Table 9.3.1.1" in view.detail.object and "18.75" in view.detail.object
 
 
 def test_bad_design_value_in_a_link_is_named(page):
