@@ -38,8 +38,9 @@ RESULT_COLUMNS = ("phiMn", "section_class", "eps_t", "utilization", "ok", "messa
 INPUT_COLUMNS = REQUIRED_COLUMNS + OPTIONAL_COLUMNS
 _CANONICAL = {name.lower(): name for name in INPUT_COLUMNS + RESULT_COLUMNS}
 
-_NUMBER_TEXT = re.compile(r"[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?")
-_COMMA_NUMBER = re.compile(r"[+-]?\d*,\d+([.,]\d+)*")
+# ASCII digits only, as in share links: `\d` would also take other scripts' digits.
+_NUMBER_TEXT = re.compile(r"[+-]?([0-9]+(\.[0-9]*)?|\.[0-9]+)([eE][+-]?[0-9]+)?")
+_COMMA_NUMBER = re.compile(r"[+-]?[0-9]*,[0-9]+([.,][0-9]+)*")
 _TRUE, _FALSE = ("true", "yes", "y", "1"), ("false", "no", "n", "0", "")
 _DELIMITERS = (",", "\t", ";")
 

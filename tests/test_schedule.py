@@ -219,3 +219,10 @@ def test_flange_and_compression_steel_columns_reach_the_engine():
         units="us", fc=4000, fy=60000, b=12, d=21.5, As=6, Mu=300, asc=1.2, dc=2.5).phiMn,
         rel=1e-12)
     assert not half.computed and "column dc = ''" in half.message and "asc" in half.message
+
+
+def test_digits_of_other_scripts_are_refused_in_a_number_cell():
+    # A schedule is read as plain ASCII decimals (common practice for CSV exchange), the same
+    # rule as share links; Arabic-Indic digits would otherwise be read silently as 4000.
+    schedule = run_schedule("mark,units,fc,fy,b,d,As,Mu\nB-1,us,٤٠٠٠,60000,12,20,3,100\n")
+    assert "column fc" in schedule.rows[0].message

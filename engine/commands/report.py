@@ -106,4 +106,4 @@ def run_report(args: argparse.Namespace) -> str:
         return json.dumps({"out": args.out, "link": link, **result.to_dict()}, ensure_ascii=False)
     verdict = "all checks pass" if result.ok else "fails " + ", ".join(
         c.clause for c in result.checks if not c.passed)
-    return f"wrote {args.out}: {verdict}; share link {link}"
+    return f"wrote {args.out}: {verdict}; " + (f"share link {link}" if link else "no share link")
