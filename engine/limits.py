@@ -22,7 +22,7 @@ EPS_T_BEAM_MINIMUM = 0.004
 """Least εt for nonprestressed beams with Pu < 0.10 f'c Ag, ACI 318-19 9.3.3.1."""
 
 # ACI 318-19 9.6.1.2, per system: As,min = max(k_sqrt·√f'c, k_flat)·bw·d / fy.
-_AS_MIN_COEFFICIENTS = {"us": (3.0, 200.0), "si": (0.25, 1.4)}
+AS_MIN_COEFFICIENTS = {"us": (3.0, 200.0), "si": (0.25, 1.4)}
 
 
 @dataclass(frozen=True)
@@ -70,7 +70,7 @@ class ReinforcementLimits:
 
 def minimum_steel(beam: BeamSection) -> AsMin:
     """As,min on the web width, ACI 318-19 9.6.1.2 (9.6.1.3 may waive it; see `checks`)."""
-    k_sqrt, k_flat = _AS_MIN_COEFFICIENTS[beam.system.name]
+    k_sqrt, k_flat = AS_MIN_COEFFICIENTS[beam.system.name]
     bd_over_fy = beam.bw * beam.d / beam.fy
     return AsMin(sqrt_term=k_sqrt * math.sqrt(beam.fc) * bd_over_fy,
                  flat_term=k_flat * bd_over_fy)

@@ -12,7 +12,7 @@ BLOCK_STRESS_FACTOR = 0.85
 
 # ACI 318-19 Table 22.2.2.4.3, in each system's own terms: (f'c up to which
 # β1 = 0.85, f'c from which β1 = 0.65, drop of 0.05 per this much f'c).
-_BETA1_TABLE = {
+BETA1_TABLE = {
     "us": (4000.0, 8000.0, 1000.0),
     "si": (28.0, 55.0, 7.0),
 }
@@ -24,7 +24,7 @@ def beta1(fc: float, system: UnitSystem = US) -> float:
     ACI 318-19 Table 22.2.2.4.3. Below the table's lowest f'c the top row
     (0.85) is used; the caller warns that such concrete is out of scope.
     """
-    upper_flat, lower_flat, per_step = _BETA1_TABLE[system.name]
+    upper_flat, lower_flat, per_step = BETA1_TABLE[system.name]
     if fc <= upper_flat:
         return 0.85
     if fc >= lower_flat:

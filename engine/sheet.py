@@ -38,7 +38,8 @@ from dataclasses import dataclass
 from .checks import CAUTION, FlexuralCheck, check
 from .equilibrium import in_block, layer_force
 from .errors import InputError
-from .materials import steel_stress
+from .limits import AS_MIN_COEFFICIENTS
+from .materials import BETA1_TABLE, EPS_CU, steel_stress
 from .section import BeamSection, Role
 from .stress_block import block_force, compressed_area
 from .share_link import format_number
@@ -48,12 +49,11 @@ SHEET_INPUTS = ("units", "fc", "fy", "b", "d", "As", "dt", "es", "Mu", "spiral",
                 "asc", "dc", "layers")
 """The `engine.check` keywords a sheet covers: all of them."""
 
-EPS_CU = 0.003  # ACI 318-19 22.2.2.1, written on the sheet
-
-# ACI 318-19 Table 22.2.2.4.3 as printed (f'c bounds of its three rows, step).
-_BETA1_ROWS = {"us": ("4000", "8000", "1000"), "si": ("28", "55", "7")}
-# ACI 318-19 9.6.1.2 coefficients as printed: (a) k√f'c/fy·bw·d, (b) k/fy·bw·d.
-_AS_MIN_TEXT = {"us": ("3", "200"), "si": ("0.25", "1.4")}
+# The code's constants as printed, taken from the engine so the two cannot drift:
+# Table 22.2.2.4.3 (f'c bounds of its rows, step) and 9.6.1.2's coefficients.
+_BETA1_ROWS = {system: tuple(f"{x:g}" for x in row) for system, row in BETA1_TABLE.items()}
+_AS_MIN_TEXT = {system: tuple(f"{x:g}" for x in pair)
+                for system, pair in AS_MIN_COEFFICIENTS.items()}
 _CONTROL_CHARACTERS = re.compile(r"[\x00-\x08\x0b-\x1f\x7f]")
 
 _FC, _FY, _ES = "f′<sub>c</sub>", "f<sub>y</sub>", "E<sub>s</sub>"
