@@ -137,6 +137,12 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
         warnings += (
             f"Tension steel does not yield (fs = {', '.join(elastic)}; fy = {beam.fy:g} {u.stress}); "
             f"c found by strain compatibility (ACI 318-19 22.2.1.2, 20.2.2.1).",)
+    for ls in state.layers:
+        if ls.layer.role is Role.COMPRESSION and ls.strain > 0:
+            warnings += (
+                f"The compression steel at d' = {ls.layer.depth:g} {beam.system.length} lies below "
+                f"the neutral axis (c = {state.c:.4g} {beam.system.length}) and is in tension "
+                f"(fs = {ls.stress:.5g} {beam.system.stress}); it is counted so (22.2.1.2, 20.2.2.1).",)
     checks = (_minimum_steel_check(beam, limits, As_req),
               _strain_limit_check(state))
     if Mu is not None:

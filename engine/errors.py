@@ -27,5 +27,6 @@ class InputError(RhoscopeError, ValueError):
         super().__init__(str(self))
 
     def __str__(self) -> str:
-        text = f"{self.field}: {self.value!r} is not accepted; expected {self.accepted}"
+        given = "missing" if self.value is None else f"{self.value!r} is not accepted"
+        text = f"{self.field}: {given}; expected {self.accepted}"
         return f"{text} ({self.why})" if self.why else text

@@ -133,7 +133,7 @@ class Schedule:
 
     def notes(self) -> tuple[str, ...]:
         """Unknown columns and row errors, one line each, for a person to read."""
-        notes = [f"unknown column {name!r} ignored (known: {', '.join(INPUT_COLUMNS)})"
+        notes = [f"column {name!r} is not an input; carried to the output unchanged (inputs: {', '.join(INPUT_COLUMNS)})"
                  for name in self.unknown_columns]
         notes += [row.message for row in self.rows if not row.computed]
         return tuple(notes)

@@ -175,15 +175,17 @@ def _tension_layers(d, As, layers, system: UnitSystem, max_area: float):
         _both_or_neither(("As", As, area_unit, max_area),
                          ("d", d, system.length, hard_maximum(system, "length")), "a tension layer")
         yield SteelLayer(in_range("As", As, area_unit, max_area), size("d", d))
+    # Numbered as a reader counts them: the As at d layer, when given, is layer 1.
+    first = 1 if d is None else 2
     count = 0
-    for count, item in enumerate(layers, start=1):
+    for count, item in enumerate(layers, start=first):
         try:
             layer_area, layer_depth = item
         except (TypeError, ValueError):
             raise InputError("layer", item, "an area and a depth, as AREA@DEPTH") from None
         yield SteelLayer(in_range(f"layer {count} area", layer_area, area_unit, max_area),
                          size(f"layer {count} depth", layer_depth))
-    if d is None and count == 0:
+    if d is None and count == 0:  # no --as/--d and no layer at all
         raise InputError("As", None, range_text(area_unit, max_area),
                          why="give As and d, or at least one layer")
 

@@ -45,11 +45,8 @@ def number(field: str, value: object, accepted: str = "a finite number") -> floa
 
 
 def range_text(unit: str, maximum: float, *, allow_zero: bool = False) -> str:
-    """How an accepted range reads: "a number in (0, 1,200] in, not below 1.2e-06 in"."""
-    if allow_zero:
-        return f"a number in [0, {maximum:,.10g}] {unit}"
-    smallest = _SMALLEST_FRACTION * maximum
-    return f"a number in (0, {maximum:,.10g}] {unit}, not below {smallest:.3g} {unit}"
+    """How an accepted range reads: "a number in (0, 1,200] in"."""
+    return f"a number in {'[0' if allow_zero else '(0'}, {maximum:,.10g}] {unit}"
 
 
 def in_range(
@@ -63,8 +60,10 @@ def in_range(
         too_low = "negative" if allow_zero else "zero or negative"
         raise InputError(field, value, accepted,
                          why=too_low if not low_ok else "larger than any real beam")
-    if 0 < result < _SMALLEST_FRACTION * maximum and not allow_zero:
-        raise InputError(field, value, accepted, why="too small for any real beam")
+    smallest = _SMALLEST_FRACTION * maximum
+    if 0 < result < smallest and not allow_zero:
+        raise InputError(field, value, accepted,
+                         why=f"below {smallest:.3g} {unit}, too small for any real beam")
     return result
 
 

@@ -14,6 +14,7 @@ from pathlib import Path
 
 import pytest
 
+from engine.checks import CAUTION
 from engine.cli import main
 from engine.share_link import format_number
 
@@ -213,3 +214,16 @@ def test_report_with_a_link_too_long_for_a_qr_code_still_writes_the_sheet(run_cl
                    "http://localhost:8000/" + "a" * 4000 + "/")
     assert done.returncode == 0 and "no QR code" in done.stderr
     assert "(no QR code)" in out.read_text(encoding="utf-8")
+
+
+def test_batch_summary_carries_the_caution(tmp_path, capsys):
+    # House rule: the caution appears on every report, a schedule's summary included.
+    assert main(["batch", str(DEMO), "--out", str(tmp_path / "out.csv")]) == 0
+    assert CAUTION in capsys.readouterr().out
+
+
+def test_batch_to_stdout_keeps_the_csv_clean_and_cautions_on_stderr(capsys):
+    assert main(["batch", str(DEMO)]) == 0
+    captured = capsys.readouterr()
+    assert CAUTION not in captured.out and CAUTION in captured.err
+    assert captured.out.startswith("mark,")

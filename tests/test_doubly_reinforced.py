@@ -211,3 +211,11 @@ def test_two_equilibria_about_the_block_edge_the_least_c_is_reported():
     assert r.state.c == pytest.approx(2.9026, rel=1e-4)
     assert -_compression_layer(r)["stress"] == pytest.approx(12068, rel=1e-4)
     assert r.Mn == pytest.approx(192.62, rel=1e-4)
+
+
+def test_compression_steel_below_the_neutral_axis_is_flagged():
+    # A's at d' = 6 in with c ≈ 5.6 in (hand estimate: 0.85·4000·12·0.85·c ≈ 3·60000 − A's force)
+    # is in tension (22.2.1.2): the result must say so, not call it compression steel silently.
+    r = engine.check(units="us", fc=4000, fy=60000, b=12, d=22, As=3, asc=2, dc=6)
+    assert r.state.c < 6
+    assert any("below the neutral axis" in w and "in tension" in w for w in r.warnings)

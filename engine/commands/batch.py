@@ -9,7 +9,9 @@ from __future__ import annotations
 
 import argparse
 import json
+import sys
 
+from ..checks import CAUTION
 from ..errors import InputError
 from ..schedule import ScheduleError, check_schedule, parse_schedule, schedule_csv
 
@@ -59,9 +61,12 @@ def run_batch(args: argparse.Namespace) -> tuple[str, int]:
             raise InputError("out", args.out, "a file that can be written",
                              why=error.strerror or str(error)) from None
     if args.json:
-        return json.dumps(schedule.to_dict(), ensure_ascii=False), status
+        return json.dumps({**schedule.to_dict(), "caution": CAUTION}, ensure_ascii=False), status
     if args.out is None:
+        # The CSV alone goes to stdout, so it can be piped; the account goes to stderr.
+        print(f"{schedule.summary.text()}\n{CAUTION}", file=sys.stderr)
         return table.rstrip("\n"), status
     lines = [f"wrote {args.out}: {schedule.summary.text()}"]
     lines += [f"  {note}" for note in schedule.notes()]
+    lines += ["", CAUTION]
     return "\n".join(lines), status

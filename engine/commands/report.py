@@ -8,7 +8,7 @@ import json
 import re
 import sys
 
-from ..checks import check
+from ..checks import CAUTION, check
 from ..errors import InputError
 from ..share_link import share_url
 from ..sheet import calculation_sheet
@@ -106,4 +106,5 @@ def run_report(args: argparse.Namespace) -> str:
         return json.dumps({"out": args.out, "link": link, **result.to_dict()}, ensure_ascii=False)
     verdict = "all checks pass" if result.ok else "fails " + ", ".join(
         c.clause for c in result.checks if not c.passed)
-    return f"wrote {args.out}: {verdict}; " + (f"share link {link}" if link else "no share link")
+    return (f"wrote {args.out}: {verdict}; " + (f"share link {link}" if link else "no share link")
+            + f"\n{CAUTION}")
