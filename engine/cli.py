@@ -8,6 +8,7 @@ the field, never a traceback.
 from __future__ import annotations
 
 import argparse
+import os
 import sys
 from collections.abc import Sequence
 from importlib import import_module
@@ -45,5 +46,9 @@ def main(argv: Sequence[str] | None = None) -> int:
         return EXIT_BAD_INPUT
     # `run` returns the text, or (text, exit status) when it can partly fail (batch).
     text, status = output if isinstance(output, tuple) else (output, 0)
-    print(text)
+    try:
+        print(text)
+        sys.stdout.flush()
+    except BrokenPipeError:  # the reader stopped early (`| head`): not an error of ours
+        os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())
     return status
