@@ -32,8 +32,9 @@ from .errors import InputError
 from .share_link import format_number
 
 REQUIRED_COLUMNS = ("mark", "units", "fc", "fy", "b", "d", "As", "Mu")
-OPTIONAL_COLUMNS = ("dt", "es", "spiral", "h", "bf", "hf", "asc", "dc")
-"""dt, Es, spiral; overall depth h; flange bf and hf; compression steel asc at dc."""
+OPTIONAL_COLUMNS = ("dt", "es", "spiral", "h", "bf", "hf", "asc", "dc", "layers")
+"""dt, Es, spiral; overall depth h; flange bf and hf; compression steel asc at dc; further
+tension layers as AREA@DEPTH pairs (the CLI's --layer), separated by spaces."""
 RESULT_COLUMNS = ("phiMn", "section_class", "eps_t", "utilization", "ok", "message")
 INPUT_COLUMNS = REQUIRED_COLUMNS + OPTIONAL_COLUMNS
 _CANONICAL = {name.lower(): name for name in INPUT_COLUMNS + RESULT_COLUMNS}
@@ -259,6 +260,9 @@ def _parse_row(number: int, cells: list[str], layout: _Layout) -> ScheduleRow:
                 inputs["units"] = text
             elif name == "spiral":
                 inputs["spiral"] = _flag(text)
+            elif name == "layers":
+                if text:
+                    inputs["layers"] = _layers(text)
             elif text and _NUMBER_TEXT.fullmatch(text):
                 inputs[name] = float(text)
             elif text or name in REQUIRED_COLUMNS:
@@ -281,6 +285,18 @@ def _refuse_number(column: str, text: str) -> None:
         raise _CellError(column, text, "a number with a decimal point (3.16), no commas: "
                          "decimal commas and thousands separators are not read")
     raise _CellError(column, text, "a number such as 4000 or 3.16")
+
+
+def _layers(text: str) -> list[tuple[float, float]]:
+    """`1.58@18.5 1.58@16` as [(1.58, 18.5), (1.58, 16.0)]."""
+    pairs = []
+    for item in re.split(r"[\s;]+", text.strip()):
+        area, separator, depth = item.partition("@")
+        if not (separator and _NUMBER_TEXT.fullmatch(area) and _NUMBER_TEXT.fullmatch(depth)):
+            raise _CellError("layers", text, "AREA@DEPTH pairs separated by spaces, "
+                             "e.g. 1.58@18.5 1.58@16")
+        pairs.append((float(area), float(depth)))
+    return pairs
 
 
 def _flag(text: str) -> bool:

@@ -226,3 +226,21 @@ def test_digits_of_other_scripts_are_refused_in_a_number_cell():
     # rule as share links; Arabic-Indic digits would otherwise be read silently as 4000.
     schedule = run_schedule("mark,units,fc,fy,b,d,As,Mu\nB-1,us,٤٠٠٠,60000,12,20,3,100\n")
     assert "column fc" in schedule.rows[0].message
+
+
+def test_further_tension_layers_come_from_a_layers_column():
+    # The cell holds the CLI's AREA@DEPTH pairs; the row must equal `engine.check` with the same
+    # layers (the reference here is the check itself: the schedule adds parsing, not engineering).
+    schedule = run_schedule("mark,units,fc,fy,b,d,As,Mu,h,layers\n"
+                            "B-9,us,4000,60000,12,21.5,3.16,250,24,1.58@18.5 1.58@16\n")
+    expected = engine.check(units="us", fc=4000, fy=60000, b=12, d=21.5, As=3.16, Mu=250, h=24,
+                            layers=[(1.58, 18.5), (1.58, 16.0)])
+    assert schedule.rows[0].phiMn == expected.phiMn
+
+
+def test_a_malformed_layers_cell_fails_its_row_only():
+    schedule = run_schedule("mark,units,fc,fy,b,d,As,Mu,layers\n"
+                            "B-9,us,4000,60000,12,21.5,3.16,250,1.58x18\n"
+                            "B-10,us,4000,60000,12,21.5,3.16,250,\n")
+    assert "column layers = '1.58x18'" in schedule.rows[0].message
+    assert schedule.rows[1].computed
