@@ -97,3 +97,17 @@ def test_bad_design_value_in_a_link_is_named(page):
     assert any(m.startswith("stirrup:") for m in page.link_messages)
     assert any(m.startswith("cover:") for m in page.link_messages)
     assert page.size_bars.result is not None
+
+
+@pytest.mark.parametrize("widget, value, field", [("mu_input", -10.0, "Mu"),
+                                                  ("h_input", 5.0, "h")])
+def test_refused_design_input_is_named_in_the_tab_and_no_table_is_left(widget, value, field):
+    # Mu ≥ 0, and h must hold the steel (h > dt): the engine refuses both, so
+    # the tab may not keep the options of the earlier inputs.
+    page = BeamCheckPage()
+    assert page.size_bars.table.object  # B-204 with Mu = 190 kip·ft has options
+    getattr(page.size_bars, widget).value = value
+    message = displayed(page.size_bars.message.object)["design_message"][0]
+    assert message.startswith(f"Not computed: {field}: ")
+    assert page.size_bars.table.object == "" and page.size_bars.result is None
+    assert page.size_bars.choice.options == {}

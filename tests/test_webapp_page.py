@@ -110,7 +110,23 @@ def test_unit_switch_converts_and_keeps_the_same_check(page):
 def test_bad_typed_value_shows_a_message_naming_the_field(page):
     page.sliders["b"].value = 0.0
     assert "b:" in page.input_pane.object and "0" in page.input_pane.object
-    assert page.cards.object  # the last good results stay on screen
+
+
+@pytest.mark.parametrize("field, value", [("b", 0.0), ("fc", -5.0)])
+def test_refused_input_leaves_no_verdict_or_strength_on_the_cards(page, field, value):
+    # ACI 318-19 22.2 needs b > 0 and f'c > 0: nothing can be checked, so the
+    # headline must not keep the earlier "Passes" or its φMn.
+    page.sliders[field].value = value
+    cards = displayed(page.cards.object)
+    assert cards["verdict"][0].startswith("VerdictNot checked")
+    assert f"{field} = {value:g} is not accepted" in cards["verdict"][0]
+    assert "Passes" not in page.cards.object and "phiMn" not in cards
+    assert "Not checked" in page.input_pane.object
+    assert "Not computed" in page.size_bars.message.object
+    assert page.size_bars.table.object == ""
+    page.sliders[field].value = 14.0 if field == "b" else 4000.0
+    assert displayed(page.cards.object)["verdict"][0].startswith("Verdict✔ Passes")
+    assert page.input_pane.object == ""
 
 
 def test_link_is_applied_exactly_even_outside_slider_spans(page):

@@ -245,6 +245,19 @@ class SizeBarsView:
         self.detail.object = detailing_html(
             self.result, None if index is None else self.result.options[index])
 
+    def show_unchecked(self, text: str) -> None:
+        """The page's inputs were refused: say why here, and show no options."""
+        self.result = None
+        self._key = None
+        self.message.object = (f'<div class="rs-msg" data-q="design_message">Not computed: '
+                               f'{escape(text)}. Correct the input to size the bars.</div>')
+        self.verdict.object = self.table.object = self.detail.object = ""
+        self._syncing = True
+        try:
+            self.choice.options = {}
+        finally:
+            self._syncing = False
+
     def _sync_widgets(self, inputs) -> None:
         units = inputs.units
         base = DESIGN_DEFAULTS[units]

@@ -97,6 +97,7 @@ class BeamCheckPage(pn.viewable.Viewer):
     def __init__(self, **params) -> None:
         super().__init__(**params)
         self.result: engine.FlexuralCheck | None = None
+        self._details_markup = ""
         self._written_search: str | None = None
         self._switch_memo: tuple[Inputs, Inputs] | None = None
         self._applying = False
@@ -139,16 +140,17 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.sketch_note = pn.pane.HTML("", stylesheets=[TEXT_CSS], width=300, margin=(0, 8))
         self.size_bars = SizeBarsView(self)
         # The results area: the check's own tab first; other views add theirs (add_view).
+        self.check_tab = pn.Column(
+            pn.Row(pn.pane.Bokeh(self.capacity_plot.figure, sizing_mode="stretch_width",
+                                 min_width=380),
+                   pn.Column(pn.pane.Bokeh(self.sketch.figure, width=300),
+                             self.sketch_note, width=310),
+                   sizing_mode="stretch_width"),
+            pn.Row(pn.pane.Bokeh(self.sweep_plot.figure, width=320), self.details,
+                   sizing_mode="stretch_width"),
+            sizing_mode="stretch_width")
         self.views = pn.Tabs(
-            ("Check", pn.Column(
-                pn.Row(pn.pane.Bokeh(self.capacity_plot.figure, sizing_mode="stretch_width",
-                                     min_width=380),
-                       pn.Column(pn.pane.Bokeh(self.sketch.figure, width=300),
-                                 self.sketch_note, width=310),
-                       sizing_mode="stretch_width"),
-                pn.Row(pn.pane.Bokeh(self.sweep_plot.figure, width=320), self.details,
-                       sizing_mode="stretch_width"),
-                sizing_mode="stretch_width")),
+            ("Check", self.check_tab),
             ("Size the bars", self.size_bars.__panel__()),
             dynamic=False, sizing_mode="stretch_width", margin=(0, 0))
         self._set_spans(self.units, self.inputs())
@@ -204,6 +206,8 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.apply(inputs)
         self.link_messages = list(messages)
         self._written_search = search
+        if messages:
+            self._write_link()  # the address bar shows what is used, once
 
     def share_query(self) -> str:
         """The query string of the current inputs."""
@@ -318,16 +322,15 @@ class BeamCheckPage(pn.viewable.Viewer):
             result = engine.check(**inputs.engine_kwargs())
             curve = self._curve(inputs, result)
         except (engine.InputError, ArithmeticError) as error:
-            text = str(error) if isinstance(error, engine.InputError) else (
-                f"the engine could not compute these inputs ({type(error).__name__})")
-            self.input_pane.object = summary.messages_html(
-                [f"{text}. The results show the last inputs that could be checked."])
+            self._show_unchecked(inputs, error)
             return
         self.input_pane.object = ""
+        self.check_tab.styles = {}
         self.result = result
         self._update_as_end(inputs)
         self.cards.object = summary.cards_html(result)
-        self.details.object = summary.details_html(result)
+        self._details_markup = summary.details_html(result)
+        self.details.object = self._details_markup
         self.capacity_plot.update(curve, result)
         fc_slider = self.sliders["fc"]
         self.sweep_plot.update(result, (fc_slider.start, fc_slider.end), inputs.section_kwargs())
@@ -338,6 +341,19 @@ class BeamCheckPage(pn.viewable.Viewer):
                 self.bars = None  # the bars were edited away from the chosen arrangement
             inputs = replace(inputs, bars=None)
         self._draw_sketch(inputs, result, option)
+
+    def _show_unchecked(self, inputs: Inputs, error: Exception) -> None:
+        """Say plainly, at the top, that `inputs` were not checked, and why."""
+        text = str(error) if isinstance(error, engine.InputError) else (
+            f"the engine could not compute these inputs ({type(error).__name__})")
+        self.input_pane.object = summary.messages_html(
+            [f"Not checked. {text}. The plots and tables below are not updated: they show "
+             f"the last inputs that could be checked."])
+        self.cards.object = summary.unchecked_cards_html(summary.refused_reason(error),
+                                                         inputs.units)
+        self.details.object = summary.stale_html(self._details_markup)
+        self.check_tab.styles = {"opacity": "0.5"}  # the plots are of the last checked inputs
+        self.size_bars.show_unchecked(text)
 
     def _draw_sketch(self, inputs: Inputs, result, option) -> None:
         if option is not None:
@@ -538,8 +554,10 @@ class BeamCheckPage(pn.viewable.Viewer):
         messages = self.link_messages
         if messages:
             self.link_pane.object = (
-                summary.messages_html(["The shared link had values that could not be used:"]
-                                      + list(messages)))
+                '<div class="rs-notice" data-q="link_notice">'
+                + summary.messages_html(["The shared link had values that could not be used "
+                                         "(the address bar now shows the inputs in use):"]
+                                        + list(messages)) + '</div>')
         else:
             self.link_pane.object = ""
 
@@ -554,18 +572,21 @@ class BeamCheckPage(pn.viewable.Viewer):
             *self.sliders.values(),
             self.mu_input,
             self.section_card,
-            self.input_pane,
             self.copy_button,
-            self.link_pane,
             width=330, min_width=280, stylesheets=[SIDEBAR_CSS], margin=(6, 8),
         )
         main = pn.Column(
-            self.cards,
             self.views,
             sizing_mode="stretch_width", min_width=340, styles={"flex": "1 1 600px"},
         )
+        # The verdict and any refusal sit under the caution, full width, so they
+        # are in view without scrolling at any width (the inputs wrap below on a
+        # narrow screen).
         return pn.Column(
             self.header,
+            self.input_pane,
+            self.link_pane,
+            self.cards,
             pn.FlexBox(sidebar, main, flex_wrap="wrap", align_items="flex-start",
                        sizing_mode="stretch_width"),
             sizing_mode="stretch_width", styles={"background": "#f7f6f2"},

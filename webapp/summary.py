@@ -98,6 +98,48 @@ def cards_html(result: engine.FlexuralCheck) -> str:
     return f'<div class="rs-cards">{"".join(cards)}</div>'
 
 
+def unchecked_cards_html(reason: str, units: str) -> str:
+    """The headline when the current inputs cannot be checked: no verdict, no numbers.
+
+    `reason` is plain text ("b = 0 is not accepted"; escaped here). The cards
+    stay in place, greyed and empty, so nothing reads as a result for inputs
+    that were not checked.
+    """
+    moment = escape(engine.unit_system(units).moment)
+    cards = [
+        '<div class="rs-card rs-verdict stale" data-q="verdict">'
+        '<div class="k">Verdict</div><div class="v rs-mark">Not checked</div>'
+        f'<div class="n">{escape(reason)}: see the message above. No result is shown '
+        'for these inputs.</div></div>',
+        f'<div class="rs-card stale"><div class="k">Design strength φMn</div>'
+        f'<div class="v">—<span class="u">{moment}</span></div>'
+        '<div class="n">not checked</div></div>',
+        '<div class="rs-card stale"><div class="k">Demand Mu · Mu/φMn</div>'
+        '<div class="v">—</div><div class="n">not checked</div></div>',
+        '<div class="rs-card stale"><div class="k">Section class</div>'
+        '<div class="v" style="font-size:17px">—</div><div class="n">not checked</div></div>',
+    ]
+    return f'<div class="rs-cards">{"".join(cards)}</div>'
+
+
+def refused_reason(error: Exception) -> str:
+    """A short plain-text reason the engine gave no result ("b = 0 is not accepted")."""
+    if isinstance(error, engine.InputError):
+        value = error.value
+        shown = f"{value:.6g}" if isinstance(value, (int, float)) and not isinstance(
+            value, bool) else str(value)
+        return f"{error.field} = {shown} is not accepted"
+    return f"the engine could not compute these inputs ({type(error).__name__})"
+
+
+def stale_html(markup: str) -> str:
+    """`markup` under a note that it belongs to earlier inputs ("" stays "")."""
+    if not markup:
+        return ""
+    return ('<div class="rs-note" data-q="stale_note">Not updated: these are the last '
+            f'inputs that could be checked.</div>{markup}')
+
+
 def details_html(result: engine.FlexuralCheck) -> str:
     """The audit trail: section state, ρ against each limit, checks, warnings."""
     r = result.to_dict()

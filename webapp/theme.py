@@ -53,6 +53,13 @@ TEXT_CSS = f"""
 .rs-verdict {{ flex: 2 1 220px; border-width: 2px; }}
 .rs-verdict.ok {{ border-color: {PASS}; }}
 .rs-verdict.bad {{ border-color: {FAIL}; background: #fff6f5; }}
+.rs-verdict.stale {{ border-color: {MUTED}; border-style: dashed; background: #f1f2f2; }}
+.rs-card.stale .v, .rs-card.stale .k {{ color: {MUTED}; }}
+.stale .rs-mark {{ color: {INK}; }}
+.rs-notice {{ font-size: 12.5px; padding: 3px 10px; margin: 2px 0; border-radius: 4px;
+  border-left: 5px solid {FAIL}; background: #fdeceb; overflow-wrap: anywhere; }}
+.rs-notice .rs-msg {{ font-size: 12.5px; padding: 1px 0; margin: 0; border: none;
+  background: none; }}
 .rs-mark {{ font-weight: 700; }}
 .ok .rs-mark, .pass {{ color: {PASS}; }}
 .bad .rs-mark, .fail {{ color: {FAIL}; }}

@@ -116,6 +116,46 @@ def test_link_with_bad_values_names_the_fields_and_falls_back(page, app_url, scr
     page.screenshot(path=screenshots / "04-bad-link.png")
 
 
+def assert_in_view_at_768(locator) -> None:
+    """`locator` ends above the fold of a 1366×768 screen (seen without scrolling)."""
+    box = locator.bounding_box()
+    assert box is not None and box["y"] + box["height"] <= 768, box
+
+
+@pytest.mark.parametrize("field, value", [("b", "0"), ("fc", "-5")])
+def test_refused_typed_value_says_not_checked_in_view(page, app_url, screenshots, field, value):
+    # b > 0 and f'c > 0 (ACI 318-19 22.2): such a section cannot be checked,
+    # so the headline must not keep the earlier green verdict or its φMn.
+    open_app(page, app_url)
+    expect(page.locator("[data-q=verdict]")).to_contain_text("Passes")
+    type_value(page, field, value)
+    verdict = page.locator("[data-q=verdict]")
+    expect(verdict).to_contain_text("Not checked", timeout=10_000)
+    expect(verdict).to_contain_text(f"{field} = {value} is not accepted")
+    expect(verdict).not_to_contain_text("Passes")
+    assert page.locator("[data-q=phiMn]").count() == 0  # no strength for unchecked inputs
+    message = page.locator("[data-q=message]", has_text=f"{field}: ")
+    expect(message).to_be_visible()
+    assert_in_view_at_768(message)
+    assert_in_view_at_768(verdict)
+    page.screenshot(path=screenshots / f"04-refused-{field}.png")
+    assert page.page_errors == []
+
+
+def test_bad_link_value_notice_is_in_view_and_the_address_is_corrected(page, app_url,
+                                                                      screenshots):
+    open_app(page, app_url, "?units=us&fc=4000&fy=60000&b=14&d=21.5&As=3.l6&Mu=190")
+    notice = page.locator("[data-q=message]", has_text="As: '3.l6'")
+    expect(notice).to_be_visible()
+    assert_in_view_at_768(notice)
+    # The fallback As is the default 3.16 in², so the check is B-204's and passes.
+    verdict = page.locator("[data-q=verdict]")
+    expect(verdict).to_contain_text("Passes")
+    assert_in_view_at_768(verdict)
+    expect(page).to_have_url(app_url + "?units=us&fc=4000&fy=60000&b=14&d=21.5&As=3.16&Mu=190")
+    page.screenshot(path=screenshots / "04-bad-link-notice.png")
+
+
 def test_link_markup_is_shown_as_text_and_never_run(page, app_url, screenshots):
     img = '<img src=x onerror="window.__rhoscope_pwned=1;alert(1)">'
     script = "<script>window.__rhoscope_pwned=2;alert(2)</script>"
