@@ -111,3 +111,25 @@ def test_refused_design_input_is_named_in_the_tab_and_no_table_is_left(widget, v
     assert message.startswith(f"Not computed: {field}: ")
     assert page.size_bars.table.object == "" and page.size_bars.result is None
     assert page.size_bars.choice.options == {}
+
+
+def test_blank_cover_stays_blank_in_si_and_meets_table_20_5_1_3_1(page):
+    # ACI 318-19 Table 20.5.1.3.1: beams not exposed to weather, 1.5 in or 40 mm
+    # of clear cover to the stirrups. A 1.5 in converted is 38.1 mm (25.4 mm/in),
+    # short of 40 mm, so a blank cover must stay blank (the code's default).
+    view = page.size_bars
+    assert page.cover is None and view.cover_input.value is None
+    page.unit_switch.value = "si"
+    assert page.cover is None and view.cover_input.value is None
+    assert view.result.section.cover >= 40.0
+    cover_rules = [rule for option in view.result.options for rule in option.failed_rules
+                   if "20.5.1.3" in rule.clause]
+    assert cover_rules == []
+    assert any(option.ok for option in view.result.options)
+
+
+def test_typed_cover_is_converted_on_a_unit_switch(page):
+    page.size_bars.cover_input.value = 2.0
+    page.unit_switch.value = "si"
+    assert page.cover == pytest.approx(2.0 * 25.4, rel=1e-9)  # 1 in = 25.4 mm (NIST SP 811)
+    assert page.size_bars.cover_input.value == pytest.approx(50.8, rel=1e-9)

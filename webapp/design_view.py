@@ -32,7 +32,7 @@ def design_kwargs(inputs) -> dict:
     base = DESIGN_DEFAULTS[units]
     kwargs = {"units": units, "fc": inputs.fc, "fy": inputs.fy, "b": inputs.b,
               "h": design_h(inputs), "Mu": inputs.Mu,
-              "cover": inputs.cover if inputs.cover is not None else base["cover"],
+              "cover": inputs.cover,  # None: the engine's Table 20.5.1.3.1 default
               "stirrup": inputs.stirrup or base["stirrup"],
               "agg": inputs.agg if inputs.agg is not None else base["agg"],
               "layers": inputs.nlayers or base["nlayers"]}
@@ -145,6 +145,7 @@ class SizeBarsView:
         self.mu_input = pn.widgets.FloatInput(label="", start=0.0, css_classes=["rs-design-Mu"],
                                               format="0[.][0000]", width=120)
         self.cover_input = pn.widgets.FloatInput(label="", start=0.0, format="0[.][0000]",
+                                                 placeholder="code default",
                                                  css_classes=["rs-design-cover"], width=120)
         self.stirrup_input = pn.widgets.Select(label="", options=STIRRUPS[units], width=90,
                                                css_classes=["rs-design-stirrup"])
@@ -265,7 +266,7 @@ class SizeBarsView:
         try:
             self.stirrup_input.options = STIRRUPS[units]
             values = {self.h_input: design_h(inputs), self.mu_input: inputs.Mu,
-                      self.cover_input: inputs.cover if inputs.cover is not None else base["cover"],
+                      self.cover_input: inputs.cover,
                       self.stirrup_input: inputs.stirrup or base["stirrup"],
                       self.agg_input: inputs.agg if inputs.agg is not None else base["agg"],
                       self.layers_input: inputs.nlayers or base["nlayers"],
@@ -276,7 +277,7 @@ class SizeBarsView:
                 if widget.value != value:
                     widget.value = value
             labels = ((self.h_input, "h, overall depth", "h"), (self.mu_input, "Mu", "Mu"),
-                      (self.cover_input, "clear cover to stirrup", "cover"),
+                      (self.cover_input, "clear cover to stirrup (blank: code)", "cover"),
                       (self.agg_input, "max aggregate", "agg"),
                       (self.span_input, "span (Table 9.3.1.1)", "span"))
             for widget, text, name in labels:

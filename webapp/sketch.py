@@ -24,9 +24,10 @@ import engine
 from .theme import BRONZE, CORAL, FONT, INK, MUTED, TEAL
 
 # Drawing allowances when the inputs do not say (common practice): h = dt + 2.5 in
-# (63 mm) when h is not given; cover 1.5 in (38 mm) to a #3 (No. 10) stirrup.
+# (63 mm) when h is not given; cover 1.5 in (40 mm) to a #3 (No. 10) stirrup,
+# ACI 318-19 Table 20.5.1.3.1's least for beams not exposed to weather.
 _BELOW_DT = {"us": 2.5, "si": 63.0}
-_NOMINAL = {"us": ("#3", 1.5, "#8"), "si": ("10", 38.0, "25")}
+_NOMINAL = {"us": ("#3", 1.5, "#8"), "si": ("10", 40.0, "25")}
 
 
 @dataclass(frozen=True)

@@ -43,11 +43,13 @@ SECTION_DEFAULTS = {
     "si": {"h": 610.0, "bf": 1200.0, "hf": 125.0, "sw": 2400.0, "ln": 7300.0, "asc": 258.0,
            "dc": 64.0},
 }
-# Bar sizing defaults (common practice: 1.5 in / 38 mm clear cover to #3 / No. 10
-# stirrups, 3/4 in / 19 mm aggregate, bars in up to two layers).
+# Bar sizing defaults (common practice: #3 / No. 10 stirrups, 3/4 in / 19 mm
+# aggregate, bars in up to two layers). The cover has none here: left blank it
+# is the engine's default, which meets Table 20.5.1.3.1 for the stirrup and
+# every bar tried (a converted 1.5 in would be 38.1 mm, under the 40 mm of SI).
 DESIGN_DEFAULTS = {
-    "us": {"cover": 1.5, "stirrup": "#3", "agg": 0.75, "nlayers": 2},
-    "si": {"cover": 38.0, "stirrup": "10", "agg": 19.0, "nlayers": 2},
+    "us": {"stirrup": "#3", "agg": 0.75, "nlayers": 2},
+    "si": {"stirrup": "10", "agg": 19.0, "nlayers": 2},
 }
 
 # Slider spans (start, end, step) covering practical beams. The As end is a
