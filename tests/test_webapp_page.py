@@ -211,3 +211,16 @@ def test_hooks_for_other_views(page):
     import panel as pn
     page.add_view("Extra", pn.pane.Str("x"))
     assert page.views._names[-1] == "Extra" and page.views._names[:2] == ["Check", "Size the bars"]
+
+
+def test_plot_legends_sit_outside_the_axes_and_ticks_are_plain(page):
+    from bokeh.models import Legend, NumeralTickFormatter
+    # The legends must not cover the curves or the section's marker, and the
+    # regions' legend must wrap to fit the plot's least width (min_width).
+    for figure in (page.capacity_plot.figure, page.sweep_plot.figure):
+        assert not [item for item in figure.center if isinstance(item, Legend)]
+    assert page.capacity_plot.region_legend in page.capacity_plot.figure.below
+    assert page.capacity_plot.region_legend.ncols == 2
+    # A moment axis reads 140,000, not 1.400e+5 (common practice: plain numbers).
+    formatter = page.capacity_plot.figure.yaxis[0].formatter
+    assert isinstance(formatter, NumeralTickFormatter) and formatter.format.startswith("0,0")

@@ -29,6 +29,7 @@ REGION_NAMES = {
     "beyond-beam-limit": "εt < 0.004: not for beams",
     "compression-controlled": "compression-controlled",
 }
+MOMENT_TICKS = "0,0.[00]"  # plain numbers with thousands separators, never 1.400e+5
 _HEADROOM = 1.22  # the y range ends this far above the largest moment, for the labels
 
 
@@ -75,6 +76,7 @@ class CapacityPlot:
         _style(fig)
         fig.xaxis.axis_label = "ρ = As / (b d)"
         fig.xaxis.formatter = NumeralTickFormatter(format="0.000")
+        fig.yaxis.formatter = NumeralTickFormatter(format=MOMENT_TICKS)
         band = fig.quad(left="left", right="right", bottom="bottom", top="top",
                         source=self.regions, fill_color="color", fill_alpha=0.5,
                         hatch_pattern="hatch", hatch_color="#7d7466", hatch_alpha=0.22,
@@ -111,15 +113,18 @@ class CapacityPlot:
             LegendItem(label="φMn", renderers=[self.phi_line]),
             LegendItem(label="Mn", renderers=[self.mn_line]),
             LegendItem(label="this section", renderers=[self.marker]),
-        ], location="bottom_right", label_text_font_size="12px", background_fill_alpha=0.85,
-            padding=4, spacing=0)
-        fig.add_layout(lines)
+        ], orientation="horizontal", location="top_left", label_text_font_size="12px",
+            padding=2, spacing=10, border_line_color=None, margin=2)
+        # Both legends sit outside the axes (none covers the curve or the
+        # section's marker); the regions' one runs in two columns, so it fits
+        # the figure's least width (a one-row legend spilled past a narrow plot).
+        fig.add_layout(lines, "above")
         self.region_legend = Legend(
             items=[LegendItem(label=REGION_NAMES[name], renderers=[band], index=i)
                    for i, name in enumerate(REGION_STYLE)],
-            orientation="horizontal", location="center", label_text_font_size="11.5px",
-            glyph_width=22, glyph_height=14, padding=2, spacing=8, border_line_color=None,
-            click_policy="none")
+            orientation="horizontal", ncols=2, location="top_left",
+            label_text_font_size="11.5px", glyph_width=22, glyph_height=14, padding=2,
+            spacing=2, label_height=14, border_line_color=None, click_policy="none")
         fig.add_layout(self.region_legend, "below")
         self.figure = fig
 
@@ -224,8 +229,11 @@ class LimitSweepPlot:
                                x_offset=-4, y_offset=2, text_font_size="11px",
                                text_color=MUTED)
         fig.add_layout(self.rho_label)
-        fig.add_layout(Legend(items=items, location="top_left", label_text_font_size="11.5px",
-                              background_fill_alpha=0.85, padding=3, spacing=0))
+        fig.xaxis.formatter = NumeralTickFormatter(format="0,0.[0]")
+        # Below the axes, so it never covers the curves.
+        fig.add_layout(Legend(items=items, orientation="horizontal", location="center",
+                              label_text_font_size="11.5px", padding=2, spacing=6,
+                              glyph_width=18, border_line_color=None), "below")
         self.hover = HoverTool(renderers=renderers, mode="vline")
         fig.add_tools(self.hover)
         self.figure = fig
