@@ -185,6 +185,53 @@ def test_css_references_resolve(site):
         assert_loadable(site, css.parent, url, DEFAULT_CDN)
 
 
+# Hosts that serve scripts, styles or fonts (common practice: the public npm and
+# font CDNs, and Panel's and Bokeh's own). A URL to one of them anywhere in a
+# shipped page, worker, JS or CSS file is a run-time fetch from outside the build.
+CODE_HOSTS = r"(?:cdn\.jsdelivr\.net|unpkg\.com|cdnjs\.cloudflare\.com|cdn\.bokeh\.org|" \
+             r"cdn\.holoviz\.org|fonts\.googleapis\.com|fonts\.gstatic\.com|esm\.sh)"
+CODE_URL = re.compile(r"(?:https?:)?//(?:[a-z0-9-]+\.)*" + CODE_HOSTS + r"[^\"'`\s)]*")
+
+
+def shipped_text_files(site: Path) -> list[Path]:
+    return sorted(p for p in site.rglob("*")
+                  if p.is_file() and p.suffix in (".html", ".js", ".mjs", ".css"))
+
+
+@pytest.mark.parametrize("which", ["site", "other_cdn_site"])
+def test_no_shipped_file_loads_from_a_cdn_but_pyodide(request, which):
+    # Issue: BokehJS asked cdn.jsdelivr.net for @tabler/icons-webfont@latest at
+    # run time. Only the Pyodide distribution may come from outside the build.
+    site = request.getfixturevalue(which)
+    base = DEFAULT_CDN if which == "site" else OTHER_CDN
+    found = {f"{path.relative_to(site)}: {url}"
+             for path in shipped_text_files(site)
+             for url in CODE_URL.findall(path.read_text(encoding="utf-8", errors="replace"))
+             if not url.startswith(base)}
+    assert found == set()
+
+
+def test_runtime_url_stand_ins_are_in_the_build(site):
+    bokeh = next((site / "static").rglob("bokeh-[0-9]*.min.js")).read_text(encoding="utf-8")
+    assert "./static/unshipped/tabler" in bokeh
+    assert (site / "static/unshipped/tabler/tabler-icons.min.css").is_file()
+
+
+@pytest.mark.parametrize("which", ["site", "other_cdn_site"])
+def test_page_says_so_when_pyodide_does_not_load(request, which):
+    site = request.getfixturevalue(which)
+    base = DEFAULT_CDN if which == "site" else OTHER_CDN
+    page = (site / "index.html").read_text(encoding="utf-8")
+    head, _, body = page.partition("</head>")
+    # The watch runs before the page starts the worker, names the base in plain
+    # text (textContent, never HTML) and gives up waiting after 60 s.
+    assert "Rhoscope could not start: the Pyodide runtime did not load from " in head
+    assert f"var base = {json.dumps(base)}" in head
+    assert "box.textContent" in head and "innerHTML" not in head.split("rs-boot-failure")[1]
+    assert "seconds = 60" in head and "addEventListener('error'" in head
+    assert "new Worker(" in body
+
+
 def test_loads_the_pinned_pyodide(site):
     worker = (site / "worker.js").read_text(encoding="utf-8")
     assert re.findall(r'importScripts\("([^"]+)"\)', worker) == [DEFAULT_CDN + "pyodide.js"]

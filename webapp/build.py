@@ -22,6 +22,11 @@ half-written site that looks complete):
    requirement that Pyodide provides at a satisfying version is loaded from
    the Pyodide CDN by name, any other is a wheel in DIR/wheels/. micropip runs
    with deps=False, so nothing is ever fetched from PyPI at run time.
+5. URLs that BokehJS builds at run time for features the app does not use (the
+   unpinned tabler icon font, MathJax) are rewritten inside the shipped JS to
+   stand-ins in DIR; no page, worker, JS or CSS file may then name a CDN but
+   the Pyodide base. index.html gets a small boot watch: if the worker fails
+   or nothing has rendered after 60 s, it says so in plain text.
 
 All URLs are relative, so DIR works from any sub-path of any static host.
 """
@@ -141,6 +146,8 @@ def _build(out: Path, cdn: str, app: Path) -> str:
     (out / PAGE).write_text(html, encoding="utf-8")
     (out / WORKER).write_text(worker, encoding="utf-8")
     _copy_panel_runtime(out)
+    _local_runtime_urls(out)
+    (out / PAGE).write_text(_with_boot_watch(html, cdn), encoding="utf-8")
     _refuse_remote(out, cdn)
     return _report(out, plan, cdn)
 
@@ -408,19 +415,112 @@ def _copy_panel_runtime(out: Path) -> None:
                         ignore=shutil.ignore_patterns("*.map", "logo"))
 
 
-def _refuse_remote(out: Path, cdn: str) -> None:
-    """No file the build wrote may still name Panel's or Bokeh's CDN, or micropip's PyPI."""
-    offenders = []
-    for path in (out / PAGE, out / WORKER):
+# URLs that BokehJS builds at run time for optional features. The tabler icon
+# font (for widget icons; the app shows none) would come unpinned from @latest,
+# MathJax only for LaTeX labels (the app has none): both point into the build
+# instead, at a stand-in that loads nothing from elsewhere.
+RUNTIME_URLS = {
+    "https://cdn.jsdelivr.net/npm/@tabler/icons-webfont@latest": "./static/unshipped/tabler",
+    "https://cdn.jsdelivr.net/npm/mathjax@3/es5/tex-svg.js": "./static/unshipped/mathjax.js",
+}
+STAND_INS = {
+    "static/unshipped/tabler/tabler-icons.min.css":
+        "/* Rhoscope's build ships no icon font; its widgets use no icons. */\n",
+    "static/unshipped/mathjax.js":
+        "console.warn('Rhoscope\\'s build does not ship MathJax; no label needs it.');\n",
+}
+BOOT_TIMEOUT_S = 60
+
+
+def _local_runtime_urls(out: Path) -> None:
+    """Rewrite `RUNTIME_URLS` inside the shipped JS and CSS; write their stand-ins."""
+    for path in sorted((out / "static").rglob("*")):
+        if path.suffix not in (".js", ".css") or not path.is_file():
+            continue
         text = path.read_text(encoding="utf-8")
-        for host in ("cdn.holoviz.org", "cdn.bokeh.org", "pypi.org", "files.pythonhosted.org", "unpkg.com"):
-            if host in text:
-                offenders.append(f"{path.name} still names {host}")
-        for url in re.findall(r"https://cdn\.jsdelivr\.net/[^\"'\s)]+", text):
+        changed = text
+        for remote, local in RUNTIME_URLS.items():
+            changed = changed.replace(remote, local)
+        if changed != text:
+            path.write_text(changed, encoding="utf-8")
+    for name, text in STAND_INS.items():
+        target = out / name
+        target.parent.mkdir(parents=True, exist_ok=True)
+        target.write_text(text, encoding="utf-8")
+
+
+BOOT_WATCH_JS = """<script>
+(function () {
+  // Rhoscope's own boot watch: a plain-text notice if the worker fails or the
+  // app has not rendered after a while (e.g. the Pyodide CDN is unreachable).
+  var base = %(base)s, seconds = %(seconds)d, shown = false;
+  function started() { return document.body && !document.body.classList.contains('pn-loading'); }
+  function show(detail) {
+    if (shown || started()) return;
+    shown = true;
+    var box = document.createElement('div');
+    box.id = 'rs-boot-failure';
+    box.setAttribute('role', 'alert');
+    box.style.cssText = 'position:fixed;top:12px;left:12px;right:12px;z-index:10000;' +
+      'padding:12px 16px;background:#fff;color:#1c2b33;border:2px solid #b3261e;' +
+      'border-radius:6px;font:15px/1.4 sans-serif;white-space:pre-wrap;';
+    box.textContent = 'Rhoscope could not start: the Pyodide runtime did not load from ' + base +
+      (detail ? ' (' + detail + ')' : '') + '. Check that this network can reach it, or use ' +
+      'a build with --pyodide-cdn pointing at a reachable copy.';
+    document.body.appendChild(box);
+  }
+  var Native = window.Worker;
+  if (Native) {
+    var Watched = function (url, options) {
+      var worker = new Native(url, options);
+      worker.addEventListener('error', function (event) {
+        show('worker error' + (event && event.message ? ': ' + event.message : ''));
+      });
+      return worker;
+    };
+    Watched.prototype = Native.prototype;
+    window.Worker = Watched;
+  }
+  setTimeout(function () { show('nothing started within ' + seconds + ' s'); }, seconds * 1000);
+})();
+</script>
+"""
+
+
+def _with_boot_watch(html: str, cdn: str) -> str:
+    """`html` with `BOOT_WATCH_JS` at the end of its head (before the worker starts)."""
+    if html.count("</head>") != 1:
+        raise BuildError("the converted page does not have exactly one </head>")
+    base = json.dumps(cdn).replace("<", "\\u003c")
+    script = BOOT_WATCH_JS % {"base": base, "seconds": BOOT_TIMEOUT_S}
+    return html.replace("</head>", script + "</head>")
+
+
+# Hosts that serve code, styles or fonts: the build may load from none of them
+# except the Pyodide base.
+REMOTE_CODE_HOSTS = ("cdn.jsdelivr.net", "cdn.holoviz.org", "cdn.bokeh.org", "unpkg.com",
+                     "cdnjs.cloudflare.com", "fonts.googleapis.com", "fonts.gstatic.com",
+                     "pypi.org", "files.pythonhosted.org")
+
+
+def _refuse_remote(out: Path, cdn: str) -> None:
+    """No page, worker, JS or CSS file of the build may load from a CDN but Pyodide's base."""
+    offenders = []
+    paths = [out / PAGE, out / WORKER] + sorted(
+        p for p in (out / "static").rglob("*") if p.suffix in (".js", ".css") and p.is_file())
+    for path in paths:
+        text = path.read_text(encoding="utf-8")
+        for url in remote_code_urls(text):
             if not url.startswith(cdn):
-                offenders.append(f"{path.name} still loads {url}")
+                offenders.append(f"{path.relative_to(out)} still loads {url}")
     if offenders:
         raise BuildError("; ".join(offenders))
+
+
+def remote_code_urls(text: str) -> list[str]:
+    """Absolute URLs in `text` on one of `REMOTE_CODE_HOSTS` (scheme-relative ones too)."""
+    hosts = "|".join(re.escape(host) for host in REMOTE_CODE_HOSTS)
+    return re.findall(r"(?:https?:)?//(?:[a-z0-9-]+\.)*(?:" + hosts + r")[^\"'`\s)]*", text)
 
 
 def _panel_dist_dir() -> Path:

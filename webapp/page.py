@@ -121,7 +121,7 @@ class BeamCheckPage(pn.viewable.Viewer):
             css_classes=["rs-input-Mu"])
         self.mu_input.param.watch(self._on_mu_widget, "value")
         self.copy_button = pn.widgets.Button(label="Copy link", color="primary",
-                                             icon="link", sizing_mode="stretch_width")
+                                             sizing_mode="stretch_width")
         self.copy_button.js_on_click(code=COPY_JS)
         self.header = pn.pane.HTML(summary.header_html(), stylesheets=[TEXT_CSS],
                                    sizing_mode="stretch_width", margin=(4, 8))
@@ -379,7 +379,7 @@ class BeamCheckPage(pn.viewable.Viewer):
             variant="outline", sizing_mode="stretch_width", css_classes=["rs-input-shape"])
         self.shape_switch.param.watch(self._on_shape, "value")
         self.flange_source = pn.widgets.RadioButtonGroup(
-            options=FLANGE_SOURCES, value="direct", 
+            options=FLANGE_SOURCES, value="direct",
             sizing_mode="stretch_width", css_classes=["rs-input-flange-source"])
         self.flange_source.param.watch(self._on_flange_source, "value")
         self.entries: dict[str, pn.widgets.FloatInput] = {}
@@ -393,8 +393,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.flange_note = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
                                         margin=(0, 10))
         self.layer_rows = pn.Column(sizing_mode="stretch_width", margin=0)
-        self.add_layer_button = pn.widgets.Button(label="Add a tension layer", icon="plus",
-                                                  
+        self.add_layer_button = pn.widgets.Button(label="Add a tension layer",
                                                   sizing_mode="stretch_width",
                                                   css_classes=["rs-add-layer"])
         self.add_layer_button.on_click(lambda event: self._add_layer())

@@ -102,7 +102,7 @@ class ScheduleView(pn.viewable.Viewer):
             placeholder=", ".join(REQUIRED_COLUMNS) + "\nB-101, us, 4000, 60000, 12, 21.5, 3.16, 180",
             height=130, sizing_mode="stretch_width", css_classes=["rs-schedule-paste"])
         self.run_button = pn.widgets.Button(label="Check pasted rows", color="primary",
-                                            icon="table", css_classes=["rs-schedule-run"])
+                                            css_classes=["rs-schedule-run"])
         self.run_button.on_click(self._on_run)
         self.progress = pn.indicators.Progress(value=0, max=100, visible=False,
                                                sizing_mode="stretch_width", height=14,
@@ -126,7 +126,7 @@ class ScheduleView(pn.viewable.Viewer):
         self._visible: Callable[[], bool] = lambda: True
         self.download = pn.widgets.FileDownload(
             callback=self._download_file, filename="schedule-results.csv",
-            label="Download results (CSV)", color="primary", icon="download",
+            label="Download results (CSV)", color="primary",
             disabled=True, css_classes=["rs-schedule-download"], width=220)
         self._layout = pn.Column(
             pn.pane.HTML(

@@ -76,7 +76,7 @@ class SheetView(pn.viewable.Viewer):
                                 ("engineer", "Engineer"), ("date", "Date"))}
         self.download = pn.widgets.FileDownload(
             callback=self._download_file, filename=sheet_filename(self.mark),
-            label="Download sheet (HTML)", color="primary", icon="download",
+            label="Download sheet (HTML)", color="primary",
             css_classes=["rs-sheet-download"], width=240, margin=(8, 10))
         self.message = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
                                     css_classes=["rs-sheet-message"])
