@@ -224,3 +224,13 @@ def test_plot_legends_sit_outside_the_axes_and_ticks_are_plain(page):
     # A moment axis reads 140,000, not 1.400e+5 (common practice: plain numbers).
     formatter = page.capacity_plot.figure.yaxis[0].formatter
     assert isinstance(formatter, NumeralTickFormatter) and formatter.format.startswith("0,0")
+
+
+def test_verdict_without_mu_says_strength_was_not_checked(page):
+    # Without Mu, ACI 318-19 9.5.1.1 (φMn ≥ Mu) cannot be checked: the verdict
+    # must not read as if strength had passed.
+    page.mu_input.value = None
+    verdict = displayed(page.cards.object)["verdict"][0]
+    assert "Passes" in verdict and "no Mu given: strength not checked" in verdict
+    page.mu_input.value = 190.0
+    assert "not checked" not in displayed(page.cards.object)["verdict"][0]

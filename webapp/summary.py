@@ -71,7 +71,11 @@ def cards_html(result: engine.FlexuralCheck) -> str:
         verdict = ("bad", "✘ Does not pass",
                    "fails " + ", ".join(escape(item["clause"]) for item in failed))
     else:
-        verdict = ("ok", "✔ Passes", f"all {len(r['checks'])} checks")
+        count = len(r["checks"])
+        checks = "both checks" if count == 2 else f"all {count} checks"
+        if r.get("Mu") is None:
+            checks += " (no Mu given: strength not checked)"
+        verdict = ("ok", "✔ Passes", checks)
     moment = escape(system.moment)
     cards = [
         f'<div class="rs-card rs-verdict {verdict[0]}" data-q="verdict">'
