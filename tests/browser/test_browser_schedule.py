@@ -81,7 +81,7 @@ def test_download_is_the_engines_csv_of_the_file(page, app_url, tmp_path, screen
     expect(summary(page)).to_be_visible(timeout=RUN_TIMEOUT_MS)
     notes = page.locator(".rs-schedule-notes")
     expect(notes).to_contain_text("row 5 (B-105): column As = '3,16'")
-    expect(notes).to_contain_text("unknown column 'level'")
+    expect(notes).to_contain_text("column 'level' is not an input")  # the engine's note
     with page.expect_download() as info:
         page.locator(".rs-schedule-download").get_by_role("button").click()
     path = tmp_path / "results.csv"
