@@ -76,27 +76,42 @@ def minimum_steel(beam: BeamSection) -> AsMin:
                  flat_term=k_flat * bd_over_fy)
 
 
-def steel_for_strain(beam: BeamSection, eps_t: float) -> float:
-    """The tension steel area that puts the strain at dt at exactly `eps_t`.
+@dataclass(frozen=True)
+class ForcesAtStrain:
+    """The forces when εt at dt is fixed, compression positive, base units."""
 
-    With c = εcu·dt / (εcu + εt) (22.2.1.2) every force but the tension
-    layers' is fixed, and theirs is proportional to a common scale factor,
-    so equilibrium gives the factor directly. Infinite when the tension
-    layers would not be in tension; zero when the rest is already in tension.
-    """
+    c: float
+    fixed: float  # the block and every layer that is not tension steel
+    tension: float  # the tension layers at their present areas
+
+
+def forces_at_strain(beam: BeamSection, eps_t: float) -> ForcesAtStrain:
+    """Fix εt at dt, so c = εcu·dt / (εcu + εt) (22.2.1.2), and sum the forces there."""
     b1 = beta1(beam.fc, beam.system)
     c = EPS_CU * beam.dt / (EPS_CU + eps_t)
     fixed = block_force(beam, b1 * c)[0]
-    scaled = 0.0
+    tension = 0.0
     for layer in beam.layers:
         force = layer_force(beam, layer.depth, layer.area, c, in_block(layer.depth, c, b1))
         if layer.role is Role.TENSION:
-            scaled += force
+            tension += force
         else:
             fixed += force
-    if scaled >= 0:
+    return ForcesAtStrain(c=c, fixed=fixed, tension=tension)
+
+
+def steel_for_strain(beam: BeamSection, eps_t: float) -> float:
+    """The tension steel area that puts the strain at dt at exactly `eps_t`.
+
+    With c fixed by the strain, every force but the tension layers' is fixed,
+    and theirs is proportional to a common scale factor, so equilibrium gives
+    the factor directly. Infinite when the tension layers would not be in
+    tension; zero when the rest is already in tension.
+    """
+    forces = forces_at_strain(beam, eps_t)
+    if forces.tension >= 0:
         return math.inf
-    return max(0.0, -fixed / scaled) * beam.As
+    return max(0.0, -forces.fixed / forces.tension) * beam.As
 
 
 def reinforcement_limits(beam: BeamSection) -> ReinforcementLimits:

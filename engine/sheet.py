@@ -38,7 +38,7 @@ from dataclasses import dataclass
 from .checks import CAUTION, FlexuralCheck, check
 from .equilibrium import in_block, layer_force
 from .errors import InputError
-from .limits import AS_MIN_COEFFICIENTS
+from .limits import AS_MIN_COEFFICIENTS, forces_at_strain
 from .materials import BETA1_TABLE, EPS_CU, steel_stress
 from .section import BeamSection, Role
 from .stress_block import block_force, compressed_area
@@ -521,15 +521,8 @@ def _general_limit_step(beam: BeamSection, r: dict, key: str, area_key: str, nam
     u = beam.system
     L, A, S = u.length, u.area, u.stress
     b1 = r["beta1"]
-    c = EPS_CU * beam.dt / (EPS_CU + strain)  # 22.2.1.2, as the engine does
-    fixed = block_force(beam, b1 * c)[0]
-    tension = 0.0
-    for layer in beam.layers:
-        force = layer_force(beam, layer.depth, layer.area, c, in_block(layer.depth, c, b1))
-        if layer.role is Role.TENSION:
-            tension += force
-        else:
-            fixed += force
+    forces = forces_at_strain(beam, strain)  # the engine's own sums
+    c, fixed, tension = forces.c, forces.fixed, forces.tension
     mean_stress = -tension / beam.As  # the tension layers' mean stress at this c
     equation = (f"{name} = {_AS} / ({_BW} d); {_AS} = ({_CC} + Σ C) / f̄<sub>s</sub> at "
                 f"c = {_EPS_CU} {_DT} / ({_EPS_CU} + {_EPS_T}) (f̄<sub>s</sub>: mean stress)")
