@@ -16,6 +16,7 @@ import pytest
 
 import engine
 from engine.sheet import calculation_sheet, sheet_steps, significant
+from self_contained import outside_resources
 
 # Harbourline Depot beams (invented), chosen to reach each branch of the sheet.
 CASES = {
@@ -219,23 +220,6 @@ def test_warning_for_non_default_es_is_shown():
     assert "195000 MPa" in text and "20.2.2.2" in text
 
 
-class _Resources(HTMLParser):
-    def __init__(self) -> None:
-        super().__init__()
-        self.problems: list[str] = []
-
-    def handle_starttag(self, tag, attrs):
-        if tag in ("script", "link", "img", "iframe", "object", "embed", "base", "form"):
-            self.problems.append(f"<{tag}>")
-        for name, value in attrs:
-            if name in ("src", "href", "xlink:href", "action", "srcset", "poster", "data"):
-                self.problems.append(f"{tag} {name}={value}")
-            if name.startswith("on"):
-                self.problems.append(f"{tag} {name}")
-            if value and "url(" in value:
-                self.problems.append(f"{tag} {name} url()")
-
-
 def _qr():
     segno = pytest.importorskip("segno", reason="segno (the web extra) makes the QR code")
     return segno.make("http://localhost:8000/?units=us", error="m").svg_inline(omitsize=True)
@@ -244,9 +228,7 @@ def _qr():
 def test_the_file_needs_nothing_from_outside():
     document = calculation_sheet(CASES["B-101-us"], link="http://localhost:8000/?units=us",
                                  qr_svg=_qr())
-    checker = _Resources()
-    checker.feed(document)
-    assert checker.problems == []
+    assert outside_resources(document) == []
     sheet = parse(document)
     assert "url(" not in sheet.style and "@import" not in sheet.style
     assert "<svg" in document  # the QR code is inline
@@ -264,9 +246,7 @@ HOSTILE = {
 
 def test_hostile_header_text_is_shown_escaped():
     document = calculation_sheet(CASES["B-101-us"], link='http://x/?a="<b>"', **HOSTILE)
-    checker = _Resources()
-    checker.feed(document)
-    assert checker.problems == []
+    assert outside_resources(document) == []
     assert "<script>" not in document and "<img" not in document
     sheet = parse(document)
     assert sheet.fields["project"] == HOSTILE["project"]

@@ -8,9 +8,9 @@ print) for the page count.
 from __future__ import annotations
 
 import re
-from html.parser import HTMLParser
 
 import pytest
+from self_contained import outside_resources
 from playwright.sync_api import expect
 
 import engine
@@ -29,32 +29,6 @@ HOSTILE = {
 }
 # The page's default beam B-204 (webapp/state.py DEFAULTS, Harbourline Depot).
 B204 = dict(units="us", fc=4000.0, fy=60000.0, b=14.0, d=21.5, As=3.16, Mu=190.0)
-
-
-class _Outside(HTMLParser):
-    """Everything in a document that would load or run something."""
-
-    def __init__(self) -> None:
-        super().__init__()
-        self.problems: list[str] = []
-
-    def handle_starttag(self, tag, attrs):
-        if tag in ("script", "link", "img", "iframe", "object", "embed", "base", "form"):
-            self.problems.append(f"<{tag}>")
-        for name, value in attrs:
-            if name in ("src", "href", "xlink:href", "action", "srcset", "poster", "data"):
-                self.problems.append(f"{tag} {name}={value}")
-            if name.startswith("on"):
-                self.problems.append(f"{tag} {name}")
-
-
-def outside_resources(document: str) -> list[str]:
-    checker = _Outside()
-    checker.feed(document)
-    problems = checker.problems
-    if re.search(r"url\(|@import", document):
-        problems.append("CSS url() or @import")
-    return problems
 
 
 def show_tab(page, title: str) -> None:
