@@ -43,6 +43,7 @@ class Drawing:
     c: float
     a: float
     h: float
+    h_given: bool  # False: h was not an input, so `h` is the drawing allowance below dt
     width: float
     schematic: bool
     note: str
@@ -114,7 +115,8 @@ def section_drawing(inputs, result: engine.FlexuralCheck, arrangement=None,
     if inputs.h is None:
         note += f" h not given: drawn {_BELOW_DT[units]:g} {L} below dt."
     return Drawing(outline_x=xs, outline_y=ys, block_x=bx, block_y=by, stirrup=stirrup,
-                   bars=bars, c=r["c"], a=a, h=h, width=right - left, schematic=schematic,
+                   bars=bars, c=r["c"], a=a, h=h, h_given=inputs.h is not None,
+                   width=right - left, schematic=schematic,
                    note=note)
 
 
@@ -192,4 +194,7 @@ class SectionSketch:
         c_y = drawing.h - drawing.c
         self.axis.data = dict(x0=[x0 - 0.04 * drawing.width], x1=[x1 + 0.04 * drawing.width],
                               y=[c_y])
-        self.size_label.update(x=(x0 + x1) / 2, y=0, text=f"h = {drawing.h:.4g} {L}")
+        shown = f"{drawing.h:.4g} {L}"
+        self.size_label.update(x=(x0 + x1) / 2, y=0,
+                               text=f"h = {shown}" if drawing.h_given
+                               else f"h not given (drawn {shown})")
