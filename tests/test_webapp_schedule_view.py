@@ -134,3 +134,22 @@ def test_the_upload_widget_feeds_the_run(monkeypatch):
 
 def test_table_data_of_nothing_is_empty_columns():
     assert all(values == [] for values in table_data(()).values())
+
+
+def test_a_bad_upload_clears_the_last_results():
+    # After a good run, a file that cannot be read must not leave the old table,
+    # summary or download on screen as if they were the new file's.
+    view = ScheduleView()
+    run(view, DEMO)
+    assert view.source.data["mark"] and view.summary.object and not view.download.disabled
+    assert view.table_slot.objects
+    view.upload.value = "mark,units\nB-1,ü".encode("latin-1")
+    assert "not UTF-8" in view.status.object
+    assert view.source.data["mark"] == [] and view.summary.object == ""
+    assert view.notes.object == "" and not view.table_slot.objects
+    assert view.download.disabled and view.schedule is None and view.results_csv() == ""
+    run(view, MIXED)
+    assert view.summary.object and view.notes.object
+    assert run(view, "mark,units,fc\nB-1,us,4000\n") is None  # readable bytes, no schedule
+    assert "lacks the column" in view.status.object
+    assert view.summary.object == "" and view.notes.object == "" and view.schedule is None

@@ -193,8 +193,21 @@ class ScheduleView(pn.viewable.Viewer):
         pn.state.execute(job)
 
     def _fail(self, message: str) -> None:
-        self.status.object = messages_html([message])
-        self.progress.visible = False
+        """Say why the new text could not be read, and drop the last schedule's results.
+
+        The old table and summary would otherwise read as the new file's.
+        """
+        self._run_id += 1  # a run still going belongs to the old text: stop it
+        with pn.io.hold():
+            self.running = False
+            self.schedule = None
+            self.source.data = table_data(())
+            self.table_slot.clear()
+            self.summary.object = ""
+            self.notes.object = ""
+            self.download.disabled = True
+            self.status.object = messages_html([message])
+            self.progress.visible = False
 
     # -- checking --------------------------------------------------------
 

@@ -120,3 +120,19 @@ def test_a_thousand_rows_are_shown_and_the_page_keeps_answering(page, app_url, t
     assert len(table_rows(page)["mark"]) == 1000
     page.screenshot(path=screenshots / "schedule-03-thousand.png", full_page=True)
     assert page.page_errors == []
+
+
+def test_a_bad_upload_clears_the_last_table_and_summary(page, app_url, tmp_path, screenshots):
+    open_schedule_tab(page, app_url)
+    upload(page, DEMO)
+    expect(summary(page)).to_be_visible(timeout=RUN_TIMEOUT_MS)
+    expect(page.locator(".slick-cell", has_text="B-104").first).to_be_visible()
+    bad = tmp_path / "latin1.csv"
+    bad.write_bytes("mark,units\nB-1,ü\n".encode("latin-1"))  # not UTF-8: cannot be read
+    upload(page, bad)
+    expect(page.locator(".rs-schedule-status")).to_contain_text("not UTF-8")
+    expect(summary(page)).to_have_count(0)
+    expect(page.locator(".slick-cell", has_text="B-104")).to_have_count(0)
+    expect(page.locator(".rs-schedule-download button")).to_be_disabled()
+    page.screenshot(path=screenshots / "schedule-05-bad-upload.png", full_page=True)
+    assert page.page_errors == []
