@@ -100,11 +100,30 @@ def test_unit_switch_converts_and_keeps_the_same_check(page):
     # 1 in = 25.4 mm exactly (NIST SP 811).
     assert page.b == pytest.approx(14 * 25.4, rel=1e-12)
     assert page.sliders["b"].value == pytest.approx(14 * 25.4, rel=1e-12)
-    assert page.result.phiMn == pytest.approx(us.phiMn * KNM_PER_KIPFT, rel=1e-9)
+    # The switch keeps 6 significant figures of each converted value, so the
+    # strength matches the exact conversion to about 1e-6.
+    assert page.result.phiMn == pytest.approx(us.phiMn * KNM_PER_KIPFT, rel=1e-5)
     assert_shows(page, engine.check(**page.inputs().engine_kwargs()))
     assert "kN·m" in page.cards.object
     page.unit_switch.value = "us"
     assert page.inputs() == parse_query("?units=us")[0]  # back to the exact values
+
+
+def test_unit_switch_writes_a_clean_link_and_typed_values_stay_exact(page):
+    page.unit_switch.value = "si"
+    query = dict(part.split("=", 1) for part in page._written_search[1:].split("&"))
+    # B-204 (4000 psi, 60000 psi, 14 x 21.5 in, 3.16 in², 190 kip·ft) by NIST SP 811
+    # Appendix B.9 factors (1 psi = 0.00689475729 MPa, 1 in = 25.4 mm, 1 kip·ft =
+    # 1.35581795 kN·m), each worked by hand to 6 significant figures.
+    assert query == {"units": "si", "fc": "27.579", "fy": "413.685", "b": "355.6",
+                     "d": "546.1", "As": "2038.71", "Mu": "257.605"}
+    page.sliders["b"].value = 355.123456789  # typed: used and linked exactly
+    assert page.b == 355.123456789 and "b=355.123456789&" in page.share_query()
+    page.unit_switch.value = "us"  # no memo now: converted and rounded again
+    assert "b=13.9812&" in page._written_search  # 355.123456789 / 25.4 = 13.98123...
+    assert "fc=4000&" in page._written_search  # 27.579 MPa / 0.00689475729 = 3999.99...
+    page.apply_link("?units=si&b=355.59999999999997")  # a link's value: exact, not rounded
+    assert page.b == 355.59999999999997
 
 
 def test_bad_typed_value_shows_a_message_naming_the_field(page):

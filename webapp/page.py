@@ -26,7 +26,8 @@ from .schedule_view import ScheduleView
 from .sheet_view import SheetView
 from .sketch import SectionSketch, section_drawing
 from .state import (DEFAULTS, INPUT_FIELDS, NUMBER_FIELDS, SECTION_DEFAULTS, SLIDER_SPANS,
-                    Inputs, convert_inputs, default_inputs, parse_query, unit_label)
+                    Inputs, convert_inputs, default_inputs, parse_query, rounded_inputs,
+                    unit_label)
 from .theme import SIDEBAR_CSS, TEXT_CSS
 
 SLIDER_FIELDS = ("fc", "fy", "b", "d", "As")
@@ -62,6 +63,15 @@ if (navigator.clipboard && window.isSecureContext) {
 def _nice_ceiling(value: float, step: float) -> float:
     """`value` rounded up to a whole number of `step`s."""
     return round(math.ceil(value / step) * step, 12)
+
+
+def _checks(inputs: Inputs) -> bool:
+    """Whether the engine accepts `inputs`."""
+    try:
+        engine.check(**inputs.engine_kwargs())
+    except (engine.InputError, ArithmeticError):
+        return False
+    return True
 
 
 class BeamCheckPage(pn.viewable.Viewer):
@@ -279,7 +289,10 @@ class BeamCheckPage(pn.viewable.Viewer):
         if self._switch_memo is not None and self._switch_memo[0] == current:
             target = self._switch_memo[1]  # switching straight back restores the exact values
         else:
-            target = convert_inputs(current, event.new)
+            exact = convert_inputs(current, event.new)
+            target = rounded_inputs(exact)
+            if not _checks(target) and _checks(exact):
+                target = exact  # rounding moved a value across a limit: keep it unrounded
         self._switch_memo = (target, current)
         self.apply(target)
         self._write_link()

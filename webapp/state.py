@@ -168,6 +168,23 @@ def convert_inputs(inputs: Inputs, units: str) -> Inputs:
     return replace(inputs, units=target.name, **values)
 
 
+SWITCH_FIGURES = 6  # significant figures a unit switch keeps: 14 in -> 355.6 mm, not 355.59999999999997
+
+
+def rounded_inputs(inputs: Inputs, figures: int = SWITCH_FIGURES) -> Inputs:
+    """`inputs` with every quantity (and each layer) rounded to `figures` significant figures.
+
+    For values a unit switch produced by conversion, whose float noise would
+    otherwise fill the share link; typed and linked values are never rounded.
+    """
+    def rounded(value):
+        return None if value is None else float(f"{value:.{figures}g}")
+
+    values = {name: rounded(getattr(inputs, name)) for name in QUANTITY}
+    values["layers"] = tuple((rounded(area), rounded(depth)) for area, depth in inputs.layers)
+    return replace(inputs, **values)
+
+
 def _same_bar(designation: str | None, source, target) -> str | None:
     if designation is None:
         return None
