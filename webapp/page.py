@@ -28,7 +28,7 @@ from .sketch import SectionSketch, section_drawing
 from .state import (DEFAULTS, INPUT_FIELDS, NUMBER_FIELDS, SECTION_DEFAULTS, SLIDER_SPANS,
                     Inputs, convert_inputs, default_inputs, parse_query, rounded_inputs,
                     unit_label)
-from .theme import SIDEBAR_CSS, TEXT_CSS
+from .theme import ENTRY_CSS, SIDEBAR_CSS, TEXT_CSS
 
 SLIDER_FIELDS = ("fc", "fy", "b", "d", "As")
 LABELS = {"fc": "f'c, concrete strength", "fy": "fy, steel yield strength",
@@ -399,7 +399,8 @@ class BeamCheckPage(pn.viewable.Viewer):
         for name, label in SECTION_ENTRIES:
             entry = pn.widgets.FloatInput(label=label, value=None, start=0.0,
                                           placeholder="none", format="0[.][0000]",
-                                          sizing_mode="stretch_width",
+                                          sizing_mode="stretch_width", align="end",
+                                          stylesheets=[ENTRY_CSS],
                                           css_classes=[f"rs-input-{name}"])
             entry.param.watch(lambda event, name=name: self._on_entry(name, event.new), "value")
             self.entries[name] = entry

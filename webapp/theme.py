@@ -91,3 +91,10 @@ PANEL_CSS = f"""
 SIDEBAR_CSS = f"""
 :host {{ background: #fff; border: 1px solid #d5dadc; border-radius: 6px; }}
 """
+
+# For the sidebar's paired number boxes: a long label ("A's, compression steel (mm²)")
+# wraps above its own box instead of running into its neighbour's.
+ENTRY_CSS = """
+.bk-input-group { white-space: normal; }
+.bk-input-group > label { overflow-wrap: anywhere; line-height: 1.2; }
+"""

@@ -57,3 +57,20 @@ def test_shape_and_compression_steel_typed_in_follow_into_the_link(page, app_url
     expect(page).to_have_url(app_url + "?units=us&fc=4000&fy=60000&b=14&d=21.5&As=3.16&Mu=190"
                              "&bf=48&hf=5&asc=0.62&dc=2.5&shape=L")
     page.screenshot(path=screenshots / "12-l-beam-typed.png")
+
+
+@pytest.mark.parametrize("width, height", [(1366, 768), (768, 1024)])
+def test_each_sidebar_label_sits_above_its_own_box(page, app_url, screenshots, width, height):
+    # The SI labels are the longest ("A's, compression steel (mm²)"): each must stay
+    # within its own box's width, above it, not run into its neighbour's label.
+    page.set_viewport_size({"width": width, "height": height})
+    open_app(page, app_url, "?units=si&shape=T&hf=125&sw=2400&ln=7300")
+    for name in ("h", "dt", "asc", "dc", "bf", "hf", "sw", "ln"):
+        label = page.locator(f".rs-input-{name} label").first
+        box = entry(page, name)
+        expect(label).to_be_visible()
+        lb, bb = label.bounding_box(), box.bounding_box()
+        assert lb["x"] >= bb["x"] - 1 and lb["x"] + lb["width"] <= bb["x"] + bb["width"] + 1, name
+        assert lb["y"] + lb["height"] <= bb["y"] + 1, name
+    page.locator(".rs-section-card").first.screenshot(
+        path=screenshots / f"sections-labels-{width}x{height}.png")
