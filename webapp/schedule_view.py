@@ -28,7 +28,7 @@ from engine.schedule import (REQUIRED_COLUMNS, Schedule, ScheduleError, Schedule
                              check_row, parse_schedule, schedule_csv, summarise)
 
 from .summary import messages_html
-from .theme import TEXT_CSS
+from .theme import DOWNLOAD_CSS, TEXT_CSS
 
 CHUNK = 50  # rows per step between yields: ~5 ms in CPython, a few tens in Pyodide
 MAX_NOTES = 25  # notes listed; the rest are counted
@@ -126,7 +126,7 @@ class ScheduleView(pn.viewable.Viewer):
         self._visible: Callable[[], bool] = lambda: True
         self.download = pn.widgets.FileDownload(
             callback=self._download_file, filename="schedule-results.csv",
-            label="Download results (CSV)", color="primary",
+            label="Download results (CSV)", color="primary", stylesheets=[DOWNLOAD_CSS],
             disabled=True, css_classes=["rs-schedule-download"], width=220)
         self._layout = pn.Column(
             pn.pane.HTML(

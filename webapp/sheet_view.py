@@ -27,7 +27,7 @@ import engine
 from engine.sheet import calculation_sheet
 
 from .summary import messages_html
-from .theme import TEXT_CSS
+from .theme import DOWNLOAD_CSS, TEXT_CSS
 
 PREVIEW_HEIGHT = 1000  # px: a Letter or A4 page at screen size, scrolled inside the frame
 
@@ -76,7 +76,7 @@ class SheetView(pn.viewable.Viewer):
                                 ("engineer", "Engineer"), ("date", "Date"))}
         self.download = pn.widgets.FileDownload(
             callback=self._download_file, filename=sheet_filename(self.mark),
-            label="Download sheet (HTML)", color="primary",
+            label="Download sheet (HTML)", color="primary", stylesheets=[DOWNLOAD_CSS],
             css_classes=["rs-sheet-download"], width=240, margin=(8, 10))
         self.message = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
                                     css_classes=["rs-sheet-message"])

@@ -98,3 +98,14 @@ ENTRY_CSS = """
 .bk-input-group { white-space: normal; }
 .bk-input-group > label { overflow-wrap: anywhere; line-height: 1.2; }
 """
+
+# For FileDownload buttons: Panel 1.9 draws them in the default (grey) style whatever
+# their button_type, which reads as disabled beside the primary buttons; this gives
+# them the primary colours, and a disabled one (nothing to download yet) still fades.
+DOWNLOAD_CSS = """
+:host(.solid) .bk-btn.bk-btn-default {
+  background-color: var(--primary-color); color: var(--button-primary-text-color);
+}
+:host(.solid) .bk-btn.bk-btn-default:hover { filter: brightness(0.9); }
+:host(.solid) .bk-btn.bk-btn-default[disabled] { opacity: 0.5; cursor: not-allowed; filter: none; }
+"""

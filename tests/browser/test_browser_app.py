@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from pathlib import Path
 from urllib.parse import parse_qsl, quote, urlsplit
 
 import pytest
@@ -224,3 +225,25 @@ def test_copy_link_puts_the_share_link_on_the_clipboard(page, app_url):
     expect(page.get_by_role("button", name="Link copied")).to_be_visible()
     copied = page.evaluate("navigator.clipboard.readText()")
     assert copied == page.url and "d=25" in copied
+
+
+BUTTON_LOOK_JS = "e => [getComputedStyle(e).backgroundColor, getComputedStyle(e).color]"
+
+
+def test_download_buttons_look_like_the_other_action_buttons(page, app_url):
+    # A download that can be used must not look grey and disabled beside the
+    # primary "Copy link" button: same fill and text colour (the page's own look).
+    open_app(page, app_url)
+    primary = page.get_by_role("button", name="Copy link").evaluate(BUTTON_LOOK_JS)
+    page.locator(".bk-tab", has_text="Calculation sheet").first.click()
+    sheet = page.locator(".rs-sheet-download button").first
+    expect(sheet).to_have_text("Download sheet (HTML)")
+    assert sheet.evaluate(BUTTON_LOOK_JS) == primary
+    page.locator(".bk-tab", has_text="Beam schedule").first.click()
+    schedule = page.locator(".rs-schedule-download button").first
+    expect(schedule).to_be_disabled()  # nothing checked yet
+    page.locator(".rs-schedule-upload input[type=file]").set_input_files(
+        str(Path(__file__).resolve().parents[1] / "data" / "harbourline_schedule.csv"))
+    expect(schedule).to_be_enabled(timeout=60_000)
+    expect(schedule).to_have_text("Download results (CSV)")
+    assert schedule.evaluate(BUTTON_LOOK_JS) == primary
