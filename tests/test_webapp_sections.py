@@ -152,3 +152,53 @@ def test_sketch_caption_says_when_h_is_assumed(page):
     assert page.sketch.size_label.text == "h = 24 in"
     page.apply_link("?units=si")  # SI B-204: d = 545 mm, drawn 63 mm below (common practice)
     assert page.sketch.size_label.text == "h not given (drawn 608 mm)"
+
+
+def _strains_by_hand(c: float, depths) -> list[float]:
+    # ACI 318-19 22.2.1.2 and 22.2.2.1: linear strains, 0.003 at the top; tension positive.
+    return [0.003 * (depth - c) / c for depth in depths]
+
+
+def test_section_state_shows_fs_prime_and_each_layers_strain_and_stress(page):
+    from scipy.optimize import brentq
+
+    page.apply_link("?units=us&fc=4000&fy=60000&b=14&d=21.5&As=3.16&Mu=190&h=24"
+                    "&layer=1.58@19&asc=0.4&dc=2.5")
+    assert page.link_messages == []
+    # Equilibrium written here: 0.85 f'c b β1 c (22.2.2.4.1, β1 = 0.85 for 4000 psi,
+    # Table 22.2.2.4.3) plus A's (f's − 0.85 f'c) (displaced concrete deducted, common
+    # practice) against the tension layers, each stress Es ε within ±fy (20.2.2.1,
+    # Es = 29,000 ksi, 20.2.2.2).
+    bars = [(3.16, 21.5), (1.58, 19.0), (0.4, 2.5)]
+
+    def stress(strain):
+        return max(-60000.0, min(60000.0, 29e6 * strain))
+
+    def net(c):
+        steel = sum(area * stress(e) for (area, _), e in
+                    zip(bars, _strains_by_hand(c, [d for _, d in bars])))
+        return 0.85 * 4000 * 14 * 0.85 * c - 0.85 * 4000 * 0.4 - steel
+
+    c = brentq(net, 3.0, 10.0, xtol=1e-12)
+    strains = _strains_by_hand(c, [d for _, d in bars])
+    shown = displayed(page.details.object)
+    assert number(shown["fs_comp"][0]) == pytest.approx(stress(strains[2]), rel=DISPLAY_REL)
+    assert number(shown["fs_comp"][0]) < 0  # compression negative: tension positive
+    assert number(shown["eps_comp"][0]) == pytest.approx(strains[2], rel=DISPLAY_REL)
+    assert "tension positive" in page.details.object
+    assert "elastic" in page.details.object  # |f's| < fy = 60,000 psi here
+    assert len(shown["layer"]) == 3
+    assert [number(v) for v in shown["layer_area"]] == pytest.approx([3.16, 1.58, 0.4])
+    assert [number(v) for v in shown["layer_depth"]] == pytest.approx([21.5, 19.0, 2.5])
+    assert [number(v) for v in shown["layer_strain"]] == pytest.approx(strains, rel=DISPLAY_REL)
+    assert [number(v) for v in shown["layer_stress"]] == pytest.approx(
+        [stress(e) for e in strains], rel=DISPLAY_REL)
+    assert shown["layer_yields"] == ["yes", "yes", "no (elastic)"]
+
+
+def test_one_tension_layer_has_no_layer_table_and_no_fs_prime(page):
+    shown = displayed(page.details.object)
+    assert "layer" not in shown and "fs_comp" not in shown
+    page.apply_link("?units=us&h=24&asc=0.4&dc=2.5")  # A's alone: f's, still no table
+    shown = displayed(page.details.object)
+    assert "fs_comp" in shown and "layer" not in shown

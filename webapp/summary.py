@@ -160,6 +160,15 @@ def details_html(result: engine.FlexuralCheck) -> str:
         ("β1", "beta1", fmt(r["beta1"], 3), "", "ACI 318-19 Table 22.2.2.4.3"),
         ("fs", "fs", fmt(r["fs"]), stress, "steel stress"),
     ]
+    layers = r.get("layers") or []
+    for layer in layers:
+        if layer["role"] == "compression":
+            state_rows.append(("f's", "fs_comp", signed(layer["stress"]), stress,
+                               "compression steel stress, tension positive (− is compression); "
+                               + ("yields: |f's| = fy" if layer["yields"]
+                                  else "elastic: |f's| < fy")))
+            state_rows.append(("ε's", "eps_comp", signed(layer["strain"]), "",
+                               "compression steel strain, tension positive"))
     if r.get("As_req") is not None:
         state_rows.append(("As,req", "As_req", fmt(r["As_req"]), area,
                            "least As for Mu within 9.3.3.1"))
@@ -167,6 +176,21 @@ def details_html(result: engine.FlexuralCheck) -> str:
         f'<tr><td>{sym}</td><td class="num">{_q(key, value)} {unit}</td>'
         f'<td class="rs-note">{escape(note)}</td></tr>'
         for sym, key, value, unit, note in state_rows)
+    layer_table = ""
+    if sum(layer["role"] == "tension" for layer in layers) > 1:
+        layer_table = (
+            '<h3>Steel layers</h3><table><tr><th>layer</th><th>area</th><th>depth</th>'
+            '<th>strain</th><th>stress</th><th>yields</th></tr>'
+            + "".join(
+                f'<tr data-q="layer"><td>{index}, {escape(layer["role"])}</td>'
+                f'<td class="num">{_q("layer_area", fmt(layer["area"]))} {area}</td>'
+                f'<td class="num">{_q("layer_depth", fmt(layer["depth"]))} {length}</td>'
+                f'<td class="num">{_q("layer_strain", signed(layer["strain"]))}</td>'
+                f'<td class="num">{_q("layer_stress", signed(layer["stress"]))} {stress}</td>'
+                f'<td>{_q("layer_yields", "yes" if layer["yields"] else "no (elastic)")}</td></tr>'
+                for index, layer in enumerate(layers, start=1))
+            + '</table><div class="rs-note">Strain and stress tension positive (− is '
+              'compression), from the engine\'s strain compatibility (22.2.1.2).</div>')
     limit_rows = []
     for key, as_key, symbol, what, clause in LIMITS:
         d_rho, d_as = r["rho"] - r[key], r["As"] - r[as_key]
@@ -190,7 +214,7 @@ def details_html(result: engine.FlexuralCheck) -> str:
         warnings = '<div class="rs-note">No warnings: the inputs are within the code\'s scope.</div>'
     return (
         '<div class="rs-grid">'
-        f'<div><h3>Section state</h3><table>{state}</table></div>'
+        f'<div><h3>Section state</h3><table>{state}</table>{layer_table}</div>'
         f'<div><h3>ρ = {_q("rho", fmt(r["rho"]))} against the limits</h3>'
         '<table><tr><th>limit</th><th>ρ at limit</th><th>As at limit</th>'
         f'<th>ρ − limit</th></tr>{"".join(limit_rows)}</table></div>'
