@@ -26,3 +26,18 @@ def run_cli():
 
     return run
 
+
+
+@pytest.fixture(scope="session")
+def built_site(tmp_path_factory) -> Path:
+    """The static site, built once per session with the command a user runs (`python -m webapp build`)."""
+    from pyodide_node import require_tools
+
+    require_tools()  # the build reads the pinned Pyodide package from tests/pyodide
+    out = tmp_path_factory.mktemp("site") / "build"
+    root = Path(__file__).resolve().parent.parent
+    done = subprocess.run([sys.executable, "-m", "webapp", "build", "--out", str(out)],
+                          capture_output=True, text=True, cwd=root, timeout=600)
+    assert done.returncode == 0, f"build failed:\n{done.stdout}\n{done.stderr}"
+    print(done.stdout)
+    return out

@@ -1,32 +1,41 @@
 """`python -m webapp build --out DIR`: the static site, run in the browser by Pyodide.
 
+The page starts in two phases (webapp/static_site/worker.js says how):
+
+1. First look. The page holds no number until the worker has computed the
+   link's own check with the Pyodide core and the project's wheel alone, both
+   shipped in DIR; it shows that check as text.
+2. Full page. The worker loads every package the page imports, in one
+   parallel `loadPackage` call from the build's own Pyodide lock file, and
+   Panel builds the page with the link already applied.
+
 Steps, each checked (a failed step stops the build with a message, never a
 half-written site that looks complete):
 
-1. `panel convert webapp/app.py --to pyodide-worker` writes app.html and its
-   web worker app.js. The page becomes index.html and the worker worker.js.
+1. `panel convert webapp/app.py --to pyodide-worker --skip-embed` writes the
+   page; nothing is pre-rendered, so no default value is ever in it. The
+   page's own scripts (BokehJS, Panel) are taken out of its head and fetched
+   after the first look; the first-look frame, its boot script and the
+   service worker come from webapp/static_site/. Panel's worker is replaced
+   by Rhoscope's.
 2. The project ships as a wheel built from this repository (engine/ and
    webapp/, nothing else), in DIR/wheels/.
-3. Every other file obtainable from PyPI or npm lives in DIR too and is loaded
-   by relative URL: Panel's and Bokeh's JS and CSS (copied from the installed
-   packages) and the pure-Python wheels the app needs that the Pyodide
-   distribution lacks (downloaded from PyPI at the versions installed here;
-   Panel's and Bokeh's slimmed of the JS bundles the page already loads).
-   Only the Pyodide distribution itself comes from its CDN, whose base URL is
-   a build option.
-4. The worker's package install is written by this build, not inferred by
-   Panel: Panel's import inference would send `engine` and `webapp` to PyPI,
-   where they do not exist. The list is the closure of Panel's, Bokeh's and
-   the app's requirements, resolved against the pinned Pyodide distribution's
-   lock file (tests/pyodide/node_modules/pyodide/pyodide-lock.json): a
-   requirement that Pyodide provides at a satisfying version is loaded from
-   the Pyodide CDN by name, any other is a wheel in DIR/wheels/. micropip runs
-   with deps=False, so nothing is ever fetched from PyPI at run time.
-5. URLs that BokehJS builds at run time for features the app does not use (the
+3. The Pyodide core (pyodide.js/.mjs, pyodide.asm.js/.wasm, python_stdlib.zip)
+   is copied from the pinned npm package into DIR/pyodide/, with a lock file
+   of the build's own. The packages the page imports are the closure of
+   Panel's, Bokeh's and the app's requirements in Pyodide's environment, less
+   `NEVER_IMPORTED` (tests/test_imports.py drives every tab with those
+   blocked). Each is a wheel in DIR/wheels/ when PyPI serves it as a
+   pure-Python wheel at the version wanted (Panel's and Bokeh's slimmed of the
+   JS bundles the page loads from DIR/static/); only the others (numpy and
+   other compiled packages) come from the Pyodide CDN, whose base URL is a
+   build option. Nothing is ever fetched from PyPI at run time.
+4. URLs that BokehJS builds at run time for features the app does not use (the
    unpinned tabler icon font, MathJax) are rewritten inside the shipped JS to
    stand-ins in DIR; no page, worker, JS or CSS file may then name a CDN but
-   the Pyodide base. index.html gets a small boot watch: if the worker fails
-   or nothing has rendered after 60 s, it says so in plain text.
+   the Pyodide base.
+5. The service worker caches the whole build under a name that carries a
+   digest of its files, and what the page fetched from the CDN.
 
 All URLs are relative, so DIR works from any sub-path of any static host.
 """
@@ -49,11 +58,14 @@ import tempfile
 import zipfile
 from dataclasses import dataclass, field
 from pathlib import Path
+from urllib.parse import quote, unquote
 
 from packaging.markers import default_environment
 from packaging.requirements import Requirement
 from packaging.utils import canonicalize_name
 from packaging.version import Version
+
+from . import build_page
 
 PANEL_VERSION = "1.9.4"
 BOKEH_VERSION = "3.9.2"
@@ -66,7 +78,11 @@ PYODIDE_LOCK = REPO / "tests" / "pyodide" / "node_modules" / "pyodide" / "pyodid
 
 PAGE = "index.html"
 WORKER = "worker.js"
+SERVICE_WORKER = "service-worker.js"
 WHEELS = "wheels"
+CORE = "pyodide"
+# The Pyodide core, copied from the pinned npm package into DIR/pyodide/.
+CORE_FILES = ("pyodide.js", "pyodide.mjs", "pyodide.asm.js", "pyodide.asm.wasm", "python_stdlib.zip")
 # Panel builds its resource URLs as PANEL_CDN_ROOT + "<version>/dist/", both while
 # converting (in CPython) and at run time in the worker, so one relative root
 # makes every Panel URL, including those computed later in the worker, local.
@@ -80,9 +96,17 @@ PANEL_CDN_DIST = f"https://cdn.holoviz.org/panel/{PANEL_VERSION}/dist/"
 # these folders hold every one Panel can name, so all are shipped (small).
 PANEL_RUNTIME_DIRS = ("css", "assets", "bundled/theme")
 
-# Panel 1.9.4 lists panel-material-ui as a requirement but never imports it; it is
-# shipped only when the app itself imports it.
-UNUSED_REQUIREMENTS = {"panel": {"panel-material-ui"}}
+# Requirements of Panel and Bokeh that the page never imports in the worker, so
+# never installed: tests/test_imports.py drives every tab and action with them
+# blocked. Panel 1.9.4 lists panel-material-ui and markdown but uses neither
+# here; Bokeh imports pandas, pillow, contourpy, narwhals and xyzservices only
+# for data or features the app does not use; requests and typing-extensions
+# are imported by nothing the page runs.
+NEVER_IMPORTED = {"panel-material-ui", "markdown", "pandas", "pillow", "contourpy", "narwhals",
+                  "xyzservices", "requests", "typing-extensions"}
+# Imported by the worker although no requirement names it: without pyodide-http,
+# panel.io.pyodide imports pandas to patch its URL readers (Panel 1.9.4).
+WORKER_EXTRAS = {"pyodide-http": "panel.io.pyodide (instead of pandas)"}
 
 MARKER = ".rhoscope-build"
 
@@ -93,11 +117,14 @@ class BuildError(RuntimeError):
 
 @dataclass
 class Plan:
-    """What the worker installs: wheel files shipped in DIR, and Pyodide packages by name."""
+    """The packages the full page loads: not in Pyodide's lock (from PyPI), and in it."""
 
     wheels: dict[str, str] = field(default_factory=dict)  # canonical name -> version
     pyodide: dict[str, str] = field(default_factory=dict)  # canonical name -> lock version
     why: dict[str, str] = field(default_factory=dict)  # canonical name -> who required it
+
+    def names(self) -> list[str]:
+        return sorted({*self.wheels, *self.pyodide})
 
 
 def build(out: str = "build", pyodide_cdn: str | None = None, app: str | os.PathLike | None = None) -> int:
@@ -129,27 +156,33 @@ def _build(out: Path, cdn: str, app: Path) -> str:
         scratch = Path(scratch)
         project_wheel = _project_wheel(scratch / "project")
         plan = _plan(app, lock)
-        downloads = _download(plan, scratch / "downloads")
+        downloads = _download(plan, lock, scratch / "downloads")
         wheel_dir = out / WHEELS
         wheel_dir.mkdir(parents=True)
-        shipped = [shutil.copy2(project_wheel, wheel_dir / project_wheel.name)]
+        project = _precompile(project_wheel, wheel_dir / project_wheel.name)
+        shipped: dict[str, Path] = {}
         for name, path in downloads.items():
             target = wheel_dir / path.name
             if name in ("panel", "bokeh"):
                 _slim_wheel(path, target, _panel_keeps if name == "panel" else _bokeh_keeps)
             else:
                 shutil.copy2(path, target)
-            shipped.append(target)
-        html, worker = _convert(app, scratch / "converted")
-    html = _local_page(html, out)
-    worker = _local_worker(worker, cdn, [f"./{WHEELS}/{Path(p).name}" for p in shipped], plan)
-    (out / PAGE).write_text(html, encoding="utf-8")
-    (out / WORKER).write_text(worker, encoding="utf-8")
+            shipped[name] = target
+        html = _convert(app, scratch / "converted")
+    remote = sorted(set(plan.pyodide) - set(shipped))
+    _copy_core(out / CORE, _site_lock(lock, plan, shipped, cdn))
+    page, page_scripts = build_page.static_page(
+        _local_page(html, out), worker=WORKER, pyodide=f"./{CORE}/", cdn=cdn,
+        service_worker=f"./{SERVICE_WORKER}")
+    (out / PAGE).write_text(page, encoding="utf-8")
+    (out / WORKER).write_text(build_page.worker_script(
+        pyodide=f"./{CORE}/", wheel=f"./{WHEELS}/{Path(project).name}", packages=plan.names(),
+        remote=remote, cdn=cdn, app_source=app.read_text(encoding="utf-8")), encoding="utf-8")
     _copy_panel_runtime(out)
     _local_runtime_urls(out)
-    (out / PAGE).write_text(_with_boot_watch(html, cdn), encoding="utf-8")
     _refuse_remote(out, cdn)
-    return _report(out, plan, cdn)
+    _write_service_worker(out, cdn)
+    return _report(out, plan, Path(project), page_scripts, shipped, remote, cdn)
 
 
 def _check_versions() -> None:
@@ -207,6 +240,25 @@ def _project_wheel(work: Path) -> Path:
     return wheels[0]
 
 
+PRECOMPILE = REPO / "webapp" / "static_site" / "precompile.mjs"
+
+
+def _precompile(wheel: Path, target: Path) -> Path:
+    """`wheel` with its modules as bytecode for the pinned Pyodide (static_site/precompile.mjs).
+
+    The first look imports the whole engine; from bytecode that takes about
+    half the time it takes from source in Pyodide (`make bench` measures it).
+    """
+    node = shutil.which("node")
+    if node is None:
+        raise BuildError("node (Node.js 18 or newer) is needed to precompile the project wheel for Pyodide")
+    done = subprocess.run([node, str(PRECOMPILE), str(PYODIDE_LOCK.parent), str(wheel), str(target)],
+                          capture_output=True, text=True)
+    if done.returncode != 0 or not target.is_file():
+        raise BuildError(f"precompiling {wheel.name} in Pyodide failed:\n{done.stdout}{done.stderr}")
+    return target
+
+
 def _setuptools_recent() -> bool:
     try:
         return Version(metadata.version("setuptools")) >= Version("77")
@@ -248,18 +300,20 @@ def _third_party_imports(app: Path) -> set[str]:
 
 
 def _plan(app: Path, lock: dict) -> Plan:
+    """Every package the full page imports, with the lock's own dependencies, as Pyodide sees them."""
     packages = {canonicalize_name(k): v for k, v in lock["packages"].items()}
     environment = _emscripten_environment(lock)
     plan = Plan()
     imported = _third_party_imports(app)
     pending = [(Requirement(f"panel=={PANEL_VERSION}"), "the app"), (Requirement(f"bokeh=={BOKEH_VERSION}"), "the app")]
     pending += [(Requirement(name), "an import in webapp/") for name in sorted(imported)]
+    pending += [(Requirement(name), by) for name, by in WORKER_EXTRAS.items()]
     while pending:
         requirement, by = pending.pop(0)
         name = canonicalize_name(requirement.name)
         if requirement.marker is not None and not requirement.marker.evaluate(environment):
             continue
-        if name in UNUSED_REQUIREMENTS.get(canonicalize_name(by.split()[0]), ()) and name not in imported:
+        if name in NEVER_IMPORTED and name not in imported:
             continue
         chosen = plan.wheels.get(name) or plan.pyodide.get(name)
         if chosen is not None:
@@ -271,7 +325,9 @@ def _plan(app: Path, lock: dict) -> Plan:
                 and requirement.specifier.contains(in_lock["version"], prereleases=True)):
             plan.pyodide[name] = in_lock["version"]
             plan.why[name] = by
-            continue  # Pyodide's loadPackage brings the lock's own dependencies
+            # loadPackage would bring these too; they are listed so that the build ships them.
+            pending += [(Requirement(dep), f"{name} {in_lock['version']} (Pyodide)") for dep in in_lock["depends"]]
+            continue
         try:
             version = metadata.version(name)
         except metadata.PackageNotFoundError:
@@ -286,13 +342,23 @@ def _plan(app: Path, lock: dict) -> Plan:
     return plan
 
 
-def _download(plan: Plan, target: Path) -> dict[str, Path]:
+def _download(plan: Plan, lock: dict, target: Path) -> dict[str, Path]:
+    """Pure-Python wheels from PyPI: every `plan.wheels` one, and each lock package PyPI serves.
+
+    A lock package whose Pyodide wheel is pure Python is shipped when PyPI has
+    that very version as a wheel; the others (compiled for WebAssembly, or not
+    on PyPI) stay on the Pyodide CDN.
+    """
+    entries = {canonicalize_name(k): v for k, v in lock["packages"].items()}
+    pure = sorted(name for name in plan.pyodide if entries[name]["file_name"].endswith("-none-any.whl"))
     pins = [f"{name}=={version}" for name, version in sorted(plan.wheels.items())]
-    command = [sys.executable, "-m", "pip", "download", "--no-deps", "--only-binary=:all:", "--quiet",
-               "--disable-pip-version-check", "-d", str(target), *pins]
-    done = subprocess.run(command, capture_output=True, text=True)
-    if done.returncode != 0:
-        raise BuildError(f"downloading wheels from PyPI failed:\n{done.stdout}{done.stderr}")
+    done = _pip_download(pins + [f"{name}=={plan.pyodide[name]}" for name in pure], target)
+    if done.returncode != 0:  # some lock version is not on PyPI: find which, one by one
+        done = _pip_download(pins, target)
+        if done.returncode != 0:
+            raise BuildError(f"downloading wheels from PyPI failed:\n{done.stdout}{done.stderr}")
+        for name in pure:
+            _pip_download([f"{name}=={plan.pyodide[name]}"], target)
     found: dict[str, Path] = {}
     for path in target.glob("*.whl"):
         name = canonicalize_name(path.name.split("-")[0])
@@ -303,6 +369,63 @@ def _download(plan: Plan, target: Path) -> dict[str, Path]:
     if missing:
         raise BuildError(f"pip download did not produce wheels for: {', '.join(missing)}")
     return found
+
+
+def _pip_download(pins: list[str], target: Path) -> subprocess.CompletedProcess:
+    command = [sys.executable, "-m", "pip", "download", "--no-deps", "--only-binary=:all:", "--quiet",
+               "--disable-pip-version-check", "-d", str(target), *pins]
+    return subprocess.run(command, capture_output=True, text=True)
+
+
+def _site_lock(lock: dict, plan: Plan, shipped: dict[str, Path], cdn: str) -> dict:
+    """The build's Pyodide lock: the packages the page loads, shipped ones by relative path.
+
+    Only those packages (and Pyodide's own stdlib entries) are listed: a
+    smaller file to fetch before the first look. Pyodide resolves a relative
+    file_name against the lock file's folder (DIR/pyodide/) and checks each
+    download against its sha256.
+    """
+    packages = {}
+    wanted = set(plan.names())
+    for key, entry in lock["packages"].items():
+        name = canonicalize_name(key)
+        if name not in wanted and entry["package_type"] == "package":
+            continue
+        entry = dict(entry)
+        if name in shipped:
+            entry.update(file_name=f"../{WHEELS}/{shipped[name].name}", sha256=_sha256(shipped[name]))
+        elif "://" not in entry["file_name"]:
+            entry["file_name"] = cdn + entry["file_name"]
+        packages[key] = entry
+    for name in plan.wheels:
+        wheel = shipped[name]
+        packages[name] = {
+            "name": name, "version": plan.wheels[name], "file_name": f"../{WHEELS}/{wheel.name}",
+            "install_dir": "site", "sha256": _sha256(wheel), "package_type": "package",
+            "imports": _top_level_modules(wheel), "depends": [], "unvendored_tests": False}
+    return {"info": lock["info"], "packages": packages}
+
+
+def _sha256(path: Path) -> str:
+    return hashlib.sha256(path.read_bytes()).hexdigest()
+
+
+def _top_level_modules(wheel: Path) -> list[str]:
+    with zipfile.ZipFile(wheel) as archive:
+        tops = {name.split("/")[0] for name in archive.namelist()}
+    return sorted(top.removesuffix(".py") for top in tops
+                  if not top.endswith((".dist-info", ".data")) and (top.endswith(".py") or "." not in top))
+
+
+def _copy_core(target: Path, site_lock: dict) -> None:
+    """The Pyodide core from the pinned npm package, and the build's lock file, into `target`."""
+    target.mkdir(parents=True)
+    for name in CORE_FILES:
+        source = PYODIDE_LOCK.parent / name
+        if not source.is_file():
+            raise BuildError(f"{source} is missing from the pinned Pyodide npm package")
+        shutil.copy2(source, target / name)
+    (target / "pyodide-lock.json").write_text(json.dumps(site_lock, indent=1), encoding="utf-8")
 
 
 def _panel_keeps(name: str) -> bool:
@@ -335,7 +458,7 @@ def _slim_wheel(source: Path, target: Path, keeps) -> None:
         wheel_out.writestr(record_name, "\n".join(lines) + "\n")
 
 
-def _convert(app: Path, work: Path) -> tuple[str, str]:
+def _convert(app: Path, work: Path) -> str:
     work.mkdir(parents=True)
     # An explicit requirements file stops Panel inferring requirements from the
     # imports; the worker's real install list is written by _local_worker.
@@ -343,21 +466,19 @@ def _convert(app: Path, work: Path) -> tuple[str, str]:
     requirements.write_text("# installs are written by webapp/build.py\n", encoding="utf-8")
     env = dict(os.environ, PANEL_CDN_ROOT=PANEL_ROOT, PYTHONPATH=os.pathsep.join(
         [str(REPO), *filter(None, [os.environ.get("PYTHONPATH")])]))
+    # --skip-embed: nothing pre-rendered, so the page never holds the default inputs' numbers.
     command = [sys.executable, "-m", "panel", "convert", str(app), "--to", "pyodide-worker",
-               "--out", str(work), "--requirements", str(requirements), "--disable-http-patch"]
+               "--out", str(work), "--requirements", str(requirements), "--disable-http-patch",
+               "--skip-embed"]
     done = subprocess.run(command, capture_output=True, text=True, env=env, cwd=REPO)
     html_path, worker_path = work / f"{app.stem}.html", work / f"{app.stem}.js"
     if done.returncode != 0 or not html_path.is_file() or not worker_path.is_file():
         raise BuildError(f"panel convert failed:\n{done.stdout}{done.stderr}")
-    return html_path.read_text(encoding="utf-8"), worker_path.read_text(encoding="utf-8")
+    return html_path.read_text(encoding="utf-8")
 
 
 def _local_page(html: str, out: Path) -> str:
-    """Point the page at DIR: its worker, BokehJS and Panel's files, all relative."""
-    worker_ref = re.findall(r'new Worker\("\./([^"]+\.js)"\)', html)
-    if len(worker_ref) != 1:
-        raise BuildError("the converted page does not start exactly one worker")
-    html = html.replace(f'new Worker("./{worker_ref[0]}")', f'new Worker("./{WORKER}")')
+    """Point the page at DIR: BokehJS and Panel's files, all relative."""
 
     def bokeh_local(match: re.Match) -> str:
         bundle, version = match.group(1), match.group(2)
@@ -377,35 +498,6 @@ def _local_page(html: str, out: Path) -> str:
             raise BuildError(f"the page loads {PANEL_DIST}{reference}, which the installed panel lacks")
         _copy(source, out / PANEL_DIST / reference)
     return html
-
-
-def _local_worker(worker: str, cdn: str, wheel_urls: list[str], plan: Plan) -> str:
-    """Load Pyodide from `cdn`; install the shipped wheels and Pyodide's own packages, nothing from PyPI."""
-    default_js = f"https://cdn.jsdelivr.net/pyodide/v{PYODIDE_VERSION}/full/pyodide.js"
-    if worker.count(f'importScripts("{default_js}");') != 1:
-        raise BuildError(f"the converted worker does not import {default_js} exactly once")
-    worker = worker.replace(f'importScripts("{default_js}");', f"importScripts({json.dumps(cdn + 'pyodide.js')});")
-    if worker.count("await loadPyodide();") != 1:
-        raise BuildError("the converted worker does not call loadPyodide() exactly once")
-    # PANEL_CDN_ROOT must be set before panel is first imported in the worker.
-    set_root = ("self.pyodide.runPython(" + json.dumps(
-        f"import os; os.environ['PANEL_CDN_ROOT'] = {PANEL_ROOT!r}") + ");")
-    worker = worker.replace("await loadPyodide();",
-                            f"await loadPyodide({{indexURL: {json.dumps(cdn)}}});\n  {set_root}")
-    install = re.findall(r"await micropip\.install\(\[[^\]]*\]\);", worker)
-    if len(install) != 1:
-        raise BuildError("the converted worker does not hold exactly one micropip.install call")
-    names = [*wheel_urls, *sorted(plan.pyodide)]
-    worker = worker.replace(install[0], f"await micropip.install({_py_list(names)}, deps=False);")
-    return worker
-
-
-def _py_list(items: list[str]) -> str:
-    # The install runs as Python inside a JS template literal: plain quoted names only.
-    for item in items:
-        if not re.fullmatch(r"[A-Za-z0-9._/+-]+", item):
-            raise BuildError(f"refusing an install name with unexpected characters: {item!r}")
-    return "[" + ", ".join(f"'{item}'" for item in items) + "]"
 
 
 def _copy_panel_runtime(out: Path) -> None:
@@ -429,7 +521,6 @@ STAND_INS = {
     "static/unshipped/mathjax.js":
         "console.warn('Rhoscope\\'s build does not ship MathJax; no label needs it.');\n",
 }
-BOOT_TIMEOUT_S = 60
 
 
 def _local_runtime_urls(out: Path) -> None:
@@ -447,53 +538,6 @@ def _local_runtime_urls(out: Path) -> None:
         target = out / name
         target.parent.mkdir(parents=True, exist_ok=True)
         target.write_text(text, encoding="utf-8")
-
-
-BOOT_WATCH_JS = """<script>
-(function () {
-  // Rhoscope's own boot watch: a plain-text notice if the worker fails or the
-  // app has not rendered after a while (e.g. the Pyodide CDN is unreachable).
-  var base = %(base)s, seconds = %(seconds)d, shown = false;
-  function started() { return document.body && !document.body.classList.contains('pn-loading'); }
-  function show(detail) {
-    if (shown || started()) return;
-    shown = true;
-    var box = document.createElement('div');
-    box.id = 'rs-boot-failure';
-    box.setAttribute('role', 'alert');
-    box.style.cssText = 'position:fixed;top:12px;left:12px;right:12px;z-index:10000;' +
-      'padding:12px 16px;background:#fff;color:#1c2b33;border:2px solid #b3261e;' +
-      'border-radius:6px;font:15px/1.4 sans-serif;white-space:pre-wrap;';
-    box.textContent = 'Rhoscope could not start: the Pyodide runtime did not load from ' + base +
-      (detail ? ' (' + detail + ')' : '') + '. Check that this network can reach it, or use ' +
-      'a build with --pyodide-cdn pointing at a reachable copy.';
-    document.body.appendChild(box);
-  }
-  var Native = window.Worker;
-  if (Native) {
-    var Watched = function (url, options) {
-      var worker = new Native(url, options);
-      worker.addEventListener('error', function (event) {
-        show('worker error' + (event && event.message ? ': ' + event.message : ''));
-      });
-      return worker;
-    };
-    Watched.prototype = Native.prototype;
-    window.Worker = Watched;
-  }
-  setTimeout(function () { show('nothing started within ' + seconds + ' s'); }, seconds * 1000);
-})();
-</script>
-"""
-
-
-def _with_boot_watch(html: str, cdn: str) -> str:
-    """`html` with `BOOT_WATCH_JS` at the end of its head (before the worker starts)."""
-    if html.count("</head>") != 1:
-        raise BuildError("the converted page does not have exactly one </head>")
-    base = json.dumps(cdn).replace("<", "\\u003c")
-    script = BOOT_WATCH_JS % {"base": base, "seconds": BOOT_TIMEOUT_S}
-    return html.replace("</head>", script + "</head>")
 
 
 # Hosts that serve code, styles or fonts: the build may load from none of them
@@ -540,25 +584,76 @@ def _copy(source: Path, target: Path) -> None:
     shutil.copy2(source, target)
 
 
+def _write_service_worker(out: Path, cdn: str) -> None:
+    """service-worker.js, caching every file of the build under a name that carries their digest."""
+    digest = hashlib.sha256()
+    files = ["./"]
+    for path in sorted(p for p in out.rglob("*") if p.is_file() and p.name not in (MARKER, SERVICE_WORKER)):
+        relative = path.relative_to(out).as_posix()
+        digest.update(relative.encode() + b"\0" + path.read_bytes())
+        files.append("./" + quote(relative, safe="/@^~!$&'()*+,;=:-._"))
+    script = build_page.service_worker_script(cache=f"rhoscope-{digest.hexdigest()[:16]}", files=files, cdn=cdn)
+    (out / SERVICE_WORKER).write_text(script, encoding="utf-8")
+
+
+def fetched_size(path: Path) -> int:
+    """Bytes of `path` as a browser fetches it from a static host: gzip at level 6, except zip files."""
+    data = path.read_bytes()
+    # Wheels and the standard library are zip files already; hosts do not gzip them again.
+    return len(data) if path.suffix in (".whl", ".zip") else len(gzip.compress(data, 6))
+
+
 def measure(out: Path) -> tuple[int, int, int]:
-    """(files, bytes on disk, bytes gzip-compressed at level 6 as a static host would serve them)."""
-    files = raw = compressed = 0
-    for path in sorted(p for p in out.rglob("*") if p.is_file() and p.name != MARKER):
-        data = path.read_bytes()
-        files += 1
-        raw += len(data)
-        # Wheels are zip files already; hosts do not gzip them again.
-        compressed += len(data) if path.suffix == ".whl" else len(gzip.compress(data, 6))
-    return files, raw, compressed
+    """(files, bytes on disk, bytes as fetched: see `fetched_size`)."""
+    paths = sorted(p for p in out.rglob("*") if p.is_file() and p.name != MARKER)
+    return len(paths), sum(p.stat().st_size for p in paths), sum(fetched_size(p) for p in paths)
 
 
-def _report(out: Path, plan: Plan, cdn: str) -> str:
+def phase_bytes(out: Path, project: Path, page_scripts: list[str], shipped: dict[str, Path]) -> dict[str, int]:
+    """What each phase of a cold start fetches from the site, compressed as a browser fetches it.
+
+    `first look` is everything before the link's check is on screen: the page,
+    its worker and style sheet, the Pyodide core and the project's wheel.
+    """
+    def size(relative: str) -> int:
+        return fetched_size(out / unquote(relative.removeprefix("./")))
+
+    page = (out / PAGE).read_text(encoding="utf-8")
+    head_css = re.findall(r'<link rel="stylesheet" href="([^"]+)"', page.partition("</head>")[0])
+    phases = {
+        "page": size(PAGE) + size(WORKER) + sum(size(href) for href in head_css),
+        "Pyodide core": sum(size(f"{CORE}/{name}") for name in CORE_FILES if name != "pyodide.mjs")
+        + size(f"{CORE}/pyodide-lock.json"),
+        "project wheel": fetched_size(project),
+    }
+    phases["first look"] = sum(phases.values())
+    phases["page scripts (after the first look)"] = sum(size(src) for src in page_scripts)
+    phases["shipped wheels (full page)"] = sum(fetched_size(path) for path in shipped.values())
+    return phases
+
+
+FIRST_LOOK_TARGET = 6_000_000  # bytes fetched before the first look (issue 9)
+
+
+def _report(out: Path, plan: Plan, project: Path, page_scripts: list[str], shipped: dict[str, Path],
+            remote: list[str], cdn: str) -> str:
     files, raw, compressed = measure(out)
+    phases = phase_bytes(out, project, page_scripts, shipped)
     buffer = io.StringIO()
     print(f"Wrote {out}/ ({files} files, {raw / 1e6:.2f} MB on disk, {compressed / 1e6:.2f} MB as fetched "
           "with gzip)", file=buffer)
-    print(f"  page {PAGE}, worker {WORKER}; Pyodide {PYODIDE_VERSION} from {cdn}", file=buffer)
-    print("  wheels shipped: " + ", ".join(f"{n} {v}" for n, v in sorted(plan.wheels.items())), file=buffer)
-    print("  from the Pyodide distribution: " + ", ".join(f"{n} {v}" for n, v in sorted(plan.pyodide.items())),
-          file=buffer)
+    print(f"  page {PAGE}, worker {WORKER}, service worker {SERVICE_WORKER}; Pyodide {PYODIDE_VERSION} "
+          f"core in {CORE}/", file=buffer)
+    print("  fetched by phase (gzip as a browser fetches it):", file=buffer)
+    for name, size in phases.items():
+        note = ""
+        if name == "first look":
+            met = "within" if size <= FIRST_LOOK_TARGET else "OVER"
+            note = f"  ({met} the {FIRST_LOOK_TARGET / 1e6:.0f} MB target)"
+        print(f"    {name}: {size / 1e6:.2f} MB{note}", file=buffer)
+    print("  full page loads, shipped here: " + ", ".join(
+        f"{n} {v}" for n, v in sorted({**plan.wheels, **plan.pyodide}.items()) if n in shipped), file=buffer)
+    print(f"  full page loads, from {cdn} (compiled for WebAssembly): "
+          + ", ".join(f"{n} {plan.pyodide[n]}" for n in remote), file=buffer)
+    print("  never installed (not imported by the page): " + ", ".join(sorted(NEVER_IMPORTED)), file=buffer)
     return buffer.getvalue().rstrip()

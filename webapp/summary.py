@@ -62,25 +62,28 @@ def header_html() -> str:
     )
 
 
+def verdict(r: dict) -> tuple[str, str, str]:
+    """(kind, title, note) of a check's `to_dict()`, in plain text: ("bad", "✘ Does not pass", ...)."""
+    failed = [item for item in r["checks"] if not item["passed"]]
+    if failed:
+        return "bad", "✘ Does not pass", "fails " + ", ".join(item["clause"] for item in failed)
+    count = len(r["checks"])
+    checks = "both checks" if count == 2 else f"all {count} checks"
+    if r.get("Mu") is None:
+        checks += " (no Mu given: strength not checked)"
+    return "ok", "✔ Passes", checks
+
+
 def cards_html(result: engine.FlexuralCheck) -> str:
     """The headline: verdict, φMn, Mu and utilisation, class, εt and φ."""
     r = result.to_dict()
     system = engine.unit_system(r["units"])
-    failed = [item for item in r["checks"] if not item["passed"]]
-    if failed:
-        verdict = ("bad", "✘ Does not pass",
-                   "fails " + ", ".join(escape(item["clause"]) for item in failed))
-    else:
-        count = len(r["checks"])
-        checks = "both checks" if count == 2 else f"all {count} checks"
-        if r.get("Mu") is None:
-            checks += " (no Mu given: strength not checked)"
-        verdict = ("ok", "✔ Passes", checks)
+    kind, title, note = verdict(r)
     moment = escape(system.moment)
     cards = [
-        f'<div class="rs-card rs-verdict {verdict[0]}" data-q="verdict">'
-        f'<div class="k">Verdict</div><div class="v rs-mark">{verdict[1]}</div>'
-        f'<div class="n">{verdict[2]}</div></div>',
+        f'<div class="rs-card rs-verdict {kind}" data-q="verdict">'
+        f'<div class="k">Verdict</div><div class="v rs-mark">{title}</div>'
+        f'<div class="n">{escape(note)}</div></div>',
         f'<div class="rs-card"><div class="k">Design strength φMn</div>'
         f'<div class="v">{_q("phiMn", fmt(r["phiMn"]))}<span class="u">{moment}</span></div>'
         f'<div class="n">Mn = {_q("Mn_card", fmt(r["Mn"]))} {moment}</div></div>',
