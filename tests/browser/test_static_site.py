@@ -18,12 +18,10 @@ in CPython); the link's beam is over-reinforced by hand as well: ρ = 6/(10·15)
 
 from __future__ import annotations
 
-import json
 import math
 import subprocess
 import sys
 import tempfile
-import time
 import urllib.parse
 from pathlib import Path
 
