@@ -341,6 +341,17 @@ def test_packages_the_page_never_imports_are_never_loaded(site):
     assert "pyodide-http" in config["packages"]  # else panel.io.pyodide imports pandas
 
 
+def test_a_package_one_tab_needs_is_in_the_lock_but_not_loaded_at_start(site):
+    from webapp.lazy_packages import LAZY
+
+    config = worker_config(site)
+    lock = {canonicalize_name(k): v for k, v in site_lock(site)["packages"].items()}
+    assert "segno" in LAZY
+    for name in LAZY:
+        assert name not in config["packages"]
+        assert (site / "pyodide" / lock[name]["file_name"]).is_file()  # loadPackage finds it
+
+
 def _wheel_metadata(path: Path) -> tuple[str, str, list[str]]:
     with zipfile.ZipFile(path) as wheel:
         meta = next(n for n in wheel.namelist() if n.endswith(".dist-info/METADATA"))

@@ -65,7 +65,7 @@ from packaging.requirements import Requirement
 from packaging.utils import canonicalize_name
 from packaging.version import Version
 
-from . import build_page
+from . import build_page, lazy_packages
 
 PANEL_VERSION = "1.9.4"
 BOKEH_VERSION = "3.9.2"
@@ -176,7 +176,8 @@ def _build(out: Path, cdn: str, app: Path) -> str:
         service_worker=f"./{SERVICE_WORKER}")
     (out / PAGE).write_text(page, encoding="utf-8")
     (out / WORKER).write_text(build_page.worker_script(
-        pyodide=f"./{CORE}/", wheel=f"./{WHEELS}/{Path(project).name}", packages=plan.names(),
+        pyodide=f"./{CORE}/", wheel=f"./{WHEELS}/{Path(project).name}",
+        packages=[name for name in plan.names() if name not in lazy_packages.LAZY],
         remote=remote, cdn=cdn, app_source=app.read_text(encoding="utf-8")), encoding="utf-8")
     _copy_panel_runtime(out)
     _local_runtime_urls(out)
@@ -652,8 +653,11 @@ def _report(out: Path, plan: Plan, project: Path, page_scripts: list[str], shipp
             note = f"  ({met} the {FIRST_LOOK_TARGET / 1e6:.0f} MB target)"
         print(f"    {name}: {size / 1e6:.2f} MB{note}", file=buffer)
     print("  full page loads, shipped here: " + ", ".join(
-        f"{n} {v}" for n, v in sorted({**plan.wheels, **plan.pyodide}.items()) if n in shipped), file=buffer)
+        f"{n} {v}" for n, v in sorted({**plan.wheels, **plan.pyodide}.items())
+        if n in shipped and n not in lazy_packages.LAZY), file=buffer)
     print(f"  full page loads, from {cdn} (compiled for WebAssembly): "
           + ", ".join(f"{n} {plan.pyodide[n]}" for n in remote), file=buffer)
+    print("  loaded when a tab first needs it: " + ", ".join(
+        f"{name} ({why})" for name, why in sorted(lazy_packages.LAZY.items())), file=buffer)
     print("  never installed (not imported by the page): " + ", ".join(sorted(NEVER_IMPORTED)), file=buffer)
     return buffer.getvalue().rstrip()

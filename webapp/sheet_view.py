@@ -26,6 +26,7 @@ import param
 import engine
 from engine.sheet import calculation_sheet
 
+from . import lazy_packages
 from .summary import messages_html
 from .theme import DOWNLOAD_CSS, TEXT_CSS
 
@@ -35,15 +36,26 @@ PREVIEW_HEIGHT = 1000  # px: a Letter or A4 page at screen size, scrolled inside
 def qr_svg(text: str) -> str | None:
     """The QR code of `text` as inline SVG, or None when the text is too long for one.
 
-    segno (pure Python, in the `web` extra) is imported here so the build
-    ships it with the app.
+    None too while segno is not installed: the static site fetches it when
+    the sheet is first drawn (`lazy_packages`), and the sheet is drawn again.
     """
-    import segno
+    try:
+        import segno
+    except ImportError:
+        return None
 
     try:
         return segno.make(text, error="m").svg_inline(scale=1, omitsize=True, dark="#000")
     except ValueError:  # segno.DataOverflowError: longer than a QR code holds
         return None
+
+
+def _segno_installed() -> bool:
+    try:
+        import segno  # noqa: F401
+    except ImportError:
+        return False
+    return True
 
 
 def sheet_filename(mark: str) -> str:
@@ -130,8 +142,16 @@ class SheetView(pn.viewable.Viewer):
 
     def _qr(self, link: str) -> str | None:
         if self._qr_for is None or self._qr_for[0] != link:
+            if not _segno_installed():
+                lazy_packages.request("segno", self._segno_arrived)
+                return None  # not kept: drawn again with the code once segno is there
             self._qr_for = (link, qr_svg(link) if link else None)
         return self._qr_for[1]
+
+    def _segno_arrived(self) -> None:
+        self._stale = True
+        if self._visible():
+            self.refresh()
 
     def sheet_html(self) -> str:
         """The calculation sheet for the current inputs; `engine.InputError` if they are bad."""

@@ -1,0 +1,48 @@
+"""A package one tab needs (segno, the sheet's QR code) loads when that tab first draws.
+
+In the static site segno is not installed at start (webapp/build.py leaves
+`lazy_packages.LAZY` out of the worker's first install); the sheet is drawn
+without the code, segno is fetched, and the sheet is drawn again with it.
+Here Pyodide's `loadPackage` is stood in for by a loader that makes segno
+importable, exactly what the real one does.
+"""
+
+from __future__ import annotations
+
+import asyncio
+import sys
+
+from webapp import lazy_packages
+from webapp.sheet_view import SheetView
+
+B204 = dict(units="us", fc=4000, fy=60000, b=14, d=21.5, As=3.16, Mu=190)  # demo beam, Harbourline Depot
+LINK = "http://localhost:5006/?units=us&fc=4000&fy=60000&b=14&d=21.5&As=3.16&Mu=190"
+
+
+def test_outside_pyodide_nothing_is_fetched():
+    assert lazy_packages.request("segno", lambda: None) is False
+
+
+def test_the_sheet_gains_its_qr_code_once_segno_arrives(monkeypatch):
+    import segno
+
+    monkeypatch.setitem(sys.modules, "segno", None)  # as in the worker before the tab opens
+    asked = []
+
+    async def load_package(name):
+        asked.append(name)
+        monkeypatch.setitem(sys.modules, "segno", segno)  # what loadPackage makes importable
+
+    async def scenario():
+        monkeypatch.setattr(lazy_packages, "_pyodide_loader", lambda: load_package)
+        view = SheetView(lambda: dict(B204), lambda: LINK)
+        view.refresh()
+        without = view.document
+        for _ in range(5):
+            await asyncio.sleep(0)
+        return without, view.document
+
+    without, with_code = asyncio.run(scenario())
+    assert asked == ["segno"]
+    assert "<svg" not in without  # drawn at once, without the code
+    assert "<svg" in with_code and with_code != without
