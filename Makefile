@@ -1,7 +1,7 @@
 # Rhoscope: `make run` (the app) and `make test` (set-up and every test).
 #   make test         venv, Python packages, Pyodide (npm), then every test except `online`
 #   make build        the static site in build/ (python -m webapp build --out build)
-#   make run          build, then serve build/ at http://localhost:8000 (needs the Pyodide CDN)
+#   make run          build, then serve build/ at http://localhost:8000 (first look offline; full page needs the Pyodide CDN)
 #   make serve        the app from a local Panel server at http://localhost:5006/ (offline)
 #   make bench        engine benchmarks in CPython and in Pyodide under Node
 #   make test-online  build/ in Chromium with Pyodide from its CDN (skips when unreachable)
@@ -48,7 +48,7 @@ build: venv pyodide
 	$(PY) -m webapp build --out build
 
 run: build
-	@echo "make run: serving build/ at http://localhost:$(PORT)/ (the page loads Pyodide from its CDN, so the browser needs access to cdn.jsdelivr.net; Ctrl-C stops)"
+	@echo "make run: serving build/ at http://localhost:$(PORT)/ (a link's first look works offline; the interactive page also needs numpy and three other compiled packages from the Pyodide CDN, cdn.jsdelivr.net; Ctrl-C stops)"
 	$(PY) -m http.server --directory build $(PORT)
 
 serve: venv
@@ -58,6 +58,7 @@ bench: venv pyodide
 	$(PY) -m pytest tests/bench --benchmark-enable --benchmark-group-by=group \
 		--benchmark-columns=min,median,mean,stddev,rounds --benchmark-sort=name -q
 	$(PY) tests/bench/compare_runtimes.py
+	$(PY) tests/bench/first_look_bench.py
 	@if grep -rqsE --include='*.py' 'mark\.bench([^a-z_]|$$)' tests; then \
 		echo "make bench: browser latency benchmarks (-m bench)"; \
 		$(PY) -m pytest -m bench -q -rs -s tests; fi
