@@ -288,7 +288,8 @@ def _third_party_imports(app: Path) -> set[str]:
                 modules.update(alias.name.split(".")[0] for alias in node.names)
             elif isinstance(node, ast.ImportFrom) and node.level == 0 and node.module:
                 modules.add(node.module.split(".")[0])
-    ours = {"engine", "webapp", "__future__"}
+    # Pyodide's own modules (its JavaScript bridges) are there in every worker.
+    ours = {"engine", "webapp", "__future__", "js", "pyodide", "pyodide_js"}
     distributions = metadata.packages_distributions()
     found: set[str] = set()
     for module in sorted(modules - ours - set(sys.stdlib_module_names)):

@@ -113,7 +113,9 @@ def static_page(html: str, *, worker: str, pyodide: str, cdn: str, service_worke
     if count != 1:
         raise PageError("the converted page does not set Bokeh's log level exactly once")
     css = (SOURCES / "first_look.css").read_text(encoding="utf-8")
-    head = head.replace("<head>", f"<head>\n    {VIEWPORT}\n    {NO_ICON}", 1)
+    if head.count('<meta charset="utf-8">') != 1:
+        raise PageError("the converted page does not declare its charset exactly once")
+    head = head.replace('<meta charset="utf-8">', f'<meta charset="utf-8">\n    {VIEWPORT}\n    {NO_ICON}')
     head += f"<style>\n{css}</style>\n"
 
     workers = re.findall(r'new Worker\("\./([^"]+\.js)"\)', body)

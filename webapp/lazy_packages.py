@@ -14,7 +14,7 @@ import importlib
 import sys
 from collections.abc import Awaitable, Callable
 
-LAZY = {"segno": "the calculation sheet's QR code (webapp/sheet_view.py)"}
+LAZY = {"segno": "the calculation sheet's QR code, webapp/sheet_view.py"}
 
 _loading: set[str] = set()
 
