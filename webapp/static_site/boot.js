@@ -67,18 +67,18 @@
   }
 
   function loadPageScripts() {
+    // Fetched in parallel, run in order (async = false), as if they were in the head.
     if (scriptsReady) return scriptsReady;
-    scriptsReady = CONFIG.pageScripts.reduce(function (previous, source) {
-      return previous.then(function () {
-        return new Promise(function (resolve, reject) {
-          var script = document.createElement("script");
-          script.src = source;
-          script.onload = resolve;
-          script.onerror = function () { reject(new Error("could not load " + source)); };
-          document.head.appendChild(script);
-        });
+    scriptsReady = Promise.all(CONFIG.pageScripts.map(function (source) {
+      return new Promise(function (resolve, reject) {
+        var script = document.createElement("script");
+        script.src = source;
+        script.async = false;
+        script.onload = resolve;
+        script.onerror = function () { reject(new Error("could not load " + source)); };
+        document.head.appendChild(script);
       });
-    }, Promise.resolve());
+    }));
     return scriptsReady;
   }
 
