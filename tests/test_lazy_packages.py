@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import asyncio
 import sys
+from concurrent.futures import ThreadPoolExecutor
 
 from webapp import lazy_packages
 from webapp.sheet_view import SheetView
@@ -42,7 +43,9 @@ def test_the_sheet_gains_its_qr_code_once_segno_arrives(monkeypatch):
             await asyncio.sleep(0)
         return without, view.document
 
-    without, with_code = asyncio.run(scenario())
+    # In a thread of its own: the browser tests keep an event loop running in the main thread.
+    with ThreadPoolExecutor(max_workers=1) as pool:
+        without, with_code = pool.submit(lambda: asyncio.run(scenario())).result()
     assert asked == ["segno"]
     assert "<svg" not in without  # drawn at once, without the code
     assert "<svg" in with_code and with_code != without

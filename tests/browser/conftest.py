@@ -61,7 +61,9 @@ def wait_until_answers(url: str, process: subprocess.Popen, timeout: float) -> N
         if process.poll() is not None:
             raise RuntimeError(f"the server exited with code {process.returncode}")
         try:
-            with urllib.request.urlopen(url, timeout=2) as response:
+            # A generous timeout: the first page a cold server renders can take seconds on a
+            # loaded machine, and a request given up early is rendered again from scratch.
+            with urllib.request.urlopen(url, timeout=30) as response:
                 if response.status == 200:
                     return
         except OSError:
@@ -96,21 +98,27 @@ def app_url():
 
 
 @pytest.fixture(scope="session")
-def chromium():
-    """Headless Chromium driven by Playwright, with a fresh profile."""
+def playwright_driver():
+    """One Playwright driver for the session (its sync API allows one per process at a time)."""
     try:
         from playwright.sync_api import sync_playwright
     except ImportError:
         _missing("the playwright Python package is not installed (pip install -e '.[test]')")
     if not Path(CHROMIUM).exists():
         _missing(f"{CHROMIUM} is missing (apt-get install chromium)")
-    profile = tempfile.mkdtemp(prefix="rhoscope-chromium-")
     with sync_playwright() as playwright:
-        context = playwright.chromium.launch_persistent_context(
-            profile, executable_path=CHROMIUM, args=CHROMIUM_ARGS, headless=True,
-            viewport={"width": 1366, "height": 768})
-        yield context
-        context.close()
+        yield playwright
+
+
+@pytest.fixture(scope="session")
+def chromium(playwright_driver):
+    """Headless Chromium driven by Playwright, with a fresh profile."""
+    profile = tempfile.mkdtemp(prefix="rhoscope-chromium-")
+    context = playwright_driver.chromium.launch_persistent_context(
+        profile, executable_path=CHROMIUM, args=CHROMIUM_ARGS, headless=True,
+        viewport={"width": 1366, "height": 768})
+    yield context
+    context.close()
     shutil.rmtree(profile, ignore_errors=True)
 
 

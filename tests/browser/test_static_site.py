@@ -19,11 +19,11 @@ in CPython); the link's beam is over-reinforced by hand as well: ρ = 6/(10·15)
 from __future__ import annotations
 
 import math
+import shutil
 import subprocess
 import sys
 import tempfile
 import urllib.parse
-from pathlib import Path
 
 import pytest
 
@@ -31,7 +31,7 @@ import engine
 from webapp.state import DEFAULTS
 from webapp.summary import fmt
 
-from conftest import CHROMIUM, CHROMIUM_ARGS, _missing, free_port, wait_until_answers
+from conftest import CHROMIUM, CHROMIUM_ARGS, free_port, wait_until_answers
 
 FAILING_LINK = dict(units="us", fc=3000, fy=60000, b=10, d=15, As=6, Mu=500)
 BOOT_TIMEOUT_MS = 180_000  # a cold Pyodide start on a loaded 2-core machine
@@ -78,27 +78,23 @@ def serve_site(built_site):
 
 
 @pytest.fixture
-def offline_browser():
+def offline_browser(playwright_driver):
     """Chromium that reaches 127.0.0.1 only, with a fresh profile per context."""
-    try:
-        from playwright.sync_api import sync_playwright
-    except ImportError:
-        _missing("the playwright Python package is not installed (pip install -e '.[test]')")
-    if not Path(CHROMIUM).exists():
-        _missing(f"{CHROMIUM} is missing (apt-get install chromium)")
-    with sync_playwright() as playwright:
-        profiles = []
+    made = []
 
-        def context(width: int = 1366, height: int = 768):
-            profile = tempfile.mkdtemp(prefix="rhoscope-static-")
-            profiles.append(profile)
-            made = playwright.chromium.launch_persistent_context(
-                profile, executable_path=CHROMIUM, args=OFFLINE_ARGS, headless=True,
-                viewport={"width": width, "height": height})
-            made.add_init_script(RECORDER)
-            return made
+    def context(width: int = 1366, height: int = 768):
+        profile = tempfile.mkdtemp(prefix="rhoscope-static-")
+        browser = playwright_driver.chromium.launch_persistent_context(
+            profile, executable_path=CHROMIUM, args=OFFLINE_ARGS, headless=True,
+            viewport={"width": width, "height": height})
+        browser.add_init_script(RECORDER)
+        made.append((browser, profile))
+        return browser
 
-        yield context
+    yield context
+    for browser, profile in made:
+        browser.close()
+        shutil.rmtree(profile, ignore_errors=True)
 
 
 def first_look_text(page) -> dict:
@@ -174,7 +170,6 @@ def test_a_failing_beams_link_shows_its_own_check_first_and_never_the_default(
             .map(e => e.id || e.tagName)""")
         assert clipped == [], f"clipped text at {width} px: {clipped}"
         page.screenshot(path=str(screenshots / f"static-first-look-{width}.png"), full_page=True)
-    context.close()
 
 
 def test_a_bad_or_hostile_link_is_named_and_shown_as_text(serve_site, offline_browser):
@@ -189,7 +184,6 @@ def test_a_bad_or_hostile_link_is_named_and_shown_as_text(serve_site, offline_br
     assert hostile in text  # shown literally, as text
     assert page.evaluate("window.__rsPwned") is None
     assert page.locator("#rs-first-look img").count() == 0
-    context.close()
 
 
 def test_a_second_visit_opens_from_the_cache_with_the_server_gone(serve_site, offline_browser):
@@ -226,4 +220,3 @@ def test_a_second_visit_opens_from_the_cache_with_the_server_gone(serve_site, of
     shown = float(look["quantities"]["Design strength φMn"].replace(",", ""))
     assert math.isclose(shown, engine.check(**other).phiMn, abs_tol=0.05)
     assert shown == pytest.approx(89.3, abs=0.1)
-    context.close()
