@@ -244,3 +244,107 @@ def test_a_malformed_layers_cell_fails_its_row_only():
                             "B-10,us,4000,60000,12,21.5,3.16,250,\n")
     assert "column layers = '1.58x18'" in schedule.rows[0].message
     assert schedule.rows[1].computed
+
+
+# Issue 10 item 3: a decimal comma must never shift cells into other columns.
+ISSUE_HEADER = "mark,units,fc,fy,b,d,As,Mu,dt"
+
+
+def test_a_row_longer_than_the_header_is_refused_not_shifted():
+    # The issue's row: meant As = 1.58 in², Mu = 190 kip·ft, no dt; the decimal comma split
+    # 1,58 into As = 1 and Mu = 58 and pushed 190 into dt. The trailing comma makes 10 cells.
+    schedule = run_schedule(_schedule("B-7,us,4000,60000,14,21.5,1,58,190,",
+                                      "B-8,us,4000,60000,14,21.5,1.58,190,",
+                                      header=ISSUE_HEADER))
+    shifted, meant = schedule.rows
+    assert not shifted.computed and shifted.inputs is None and shifted.ok is None
+    for words in ("row 2 (B-7)", "10 cells", "header has 9 columns", "decimal comma",
+                  "unquoted comma"):
+        assert words in shifted.message, (words, shifted.message)
+    assert meant.inputs == dict(units="us", fc=4000.0, fy=60000.0, b=14.0, d=21.5, As=1.58,
+                                Mu=190.0)
+    # The beam meant fails: φMn = 0.9·1.58·60000·(21.5 − a/2)/12000 with
+    # a = 1.58·60000/(0.85·4000·14) = 1.992 in, 145.8 kip·ft < 190 (ACI 318-19 22.2.2.4.1).
+    assert meant.phiMn == pytest.approx(_phi_mn_yielded(4000, 60000, 14, 21.5, 1.58, 12000),
+                                        rel=1e-12)
+    assert meant.ok is False
+    assert schedule.summary.errors == 1
+
+
+@pytest.mark.parametrize("delimiter, name", [("\t", "tab"), (";", "semicolon")])
+def test_a_longer_row_in_a_pasted_table_names_its_separator(delimiter, name):
+    text = _schedule("B-1,us,4000,60000,12,21.5,3.16,180,x", header=HEADER).replace(",", delimiter)
+    row = run_schedule(text).rows[0]
+    assert not row.computed and "9 cells" in row.message and f"a {name} inside a cell" in row.message
+
+
+def test_a_shorter_row_reads_missing_optional_cells_as_blank_and_names_missing_required_ones():
+    schedule = run_schedule(_schedule("B-1,us,4000,60000,12,21.5,3.16,180",
+                                      "B-2,us,4000,60000,12,21.5",
+                                      header=HEADER + ",dt,spiral"))
+    short_optional, short_required = schedule.rows
+    assert short_optional.computed and short_optional.phiMn == pytest.approx(B101_PHI_MN,
+                                                                             rel=1e-12)
+    assert not short_required.computed
+    for words in ("row 3 (B-2)", "6 cells", "10 columns", "As, Mu"):
+        assert words in short_required.message, (words, short_required.message)
+
+
+# Issue 10 item 8: a malformed row fails alone and is named; the rows after it are read.
+GOOD = "B-101,us,4000,60000,12,21.5,3.16,180"
+
+
+@pytest.mark.parametrize("bad, words", [
+    pytest.param('B-5,us,"4000,60000,12,21.5,3.16,180', ("row 3 (B-5)", "never closed"),
+                 id="quote-never-closed"),
+    pytest.param('B-5,us,4000,"60000,12,21.5,3.16,180', ("row 3 (B-5)", "never closed"),
+                 id="quote-in-a-number-column"),
+    pytest.param('B-5,us,4000,"60"000,12,21.5,3.16,180', ("row 3 (B-5)", "closing quote"),
+                 id="text-after-a-closing-quote"),
+    pytest.param("B-5,us,4000,60000,12,21.5,3.16," + "9" * 200_000,
+                 ("row 3 (B-5)", "131,072 characters"), id="cell-over-the-csv-limit"),
+])
+def test_a_row_that_is_not_csv_fails_alone(bad, words):
+    text = _schedule(GOOD, bad, GOOD.replace("B-101", "B-102"), GOOD.replace("B-101", "B-103"))
+    schedule = run_schedule(text)
+    assert [(row.row, row.mark, row.computed) for row in schedule.rows] == [
+        (2, "B-101", True), (3, "B-5", False), (4, "B-102", True), (5, "B-103", True)]
+    for word in words:
+        assert word in schedule.rows[1].message, (word, schedule.rows[1].message)
+    assert len(schedule.rows[1].message) < 400
+    out = list(csv.DictReader(io.StringIO(schedule_csv(schedule))))
+    assert [row["mark"] for row in out] == ["B-101", "B-5", "B-102", "B-103"]
+
+
+def test_two_stray_quotes_fail_their_own_rows_not_the_rows_between():
+    text = _schedule(GOOD, 'B-2,us,"4000,60000,12,21.5,3.16,180',
+                     GOOD.replace("B-101", "B-3"), GOOD.replace("B-101", "B-4"),
+                     'B-5,us,4000",60000,12,21.5,3.16,180', GOOD.replace("B-101", "B-6"))
+    schedule = run_schedule(text)
+    assert [(row.row, row.mark, row.computed) for row in schedule.rows] == [
+        (2, "B-101", True), (3, "B-2", False), (4, "B-3", True), (5, "B-4", True),
+        (6, "B-5", False), (7, "B-6", True)]
+
+
+def test_a_quoted_line_break_in_a_note_column_is_one_row():
+    schedule = run_schedule(_schedule(GOOD + ',"north bay\nsee drawing S-2"',
+                                      GOOD.replace("B-101", "B-102") + ",",
+                                      header=HEADER + ",note"))
+    assert [(row.row, row.mark, row.computed) for row in schedule.rows] == [
+        (2, "B-101", True), (4, "B-102", True)]  # the note takes lines 2 and 3
+    out = list(csv.DictReader(io.StringIO(schedule_csv(schedule))))
+    assert out[0]["note"] == "north bay\nsee drawing S-2"
+
+
+def test_a_huge_cell_is_quoted_shortened_in_its_message():
+    schedule = run_schedule(_schedule("B-1,us,4000,60000,12,21.5," + "7" * 100_000 + ",180"))
+    message = schedule.rows[0].message
+    assert "column As" in message and "100,000 characters" in message and len(message) < 300
+
+
+def test_line_separators_inside_a_cell_do_not_move_row_numbers():
+    # U+2028 and a form feed are not line breaks in CSV (RFC 4180: CRLF); str.splitlines is.
+    schedule = run_schedule(_schedule("B-1\u2028x,us,4000,60000,12,21.5,3.16,180",
+                                      "B-2\x0c,us,4000,60000,12,21.5,3.16,180", GOOD))
+    assert [row.row for row in schedule.rows] == [2, 3, 4]
+    assert all(row.computed for row in schedule.rows)
