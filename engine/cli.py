@@ -47,7 +47,12 @@ def main(argv: Sequence[str] | None = None) -> int:
     # `run` returns the text, or (text, exit status) when it can partly fail (batch).
     text, status = output if isinstance(output, tuple) else (output, 0)
     try:
-        print(text)
+        try:
+            print(text)
+        except UnicodeEncodeError:
+            # A file name of bytes that are not UTF-8 (a lone surrogate, PEP 383),
+            # echoed in "wrote …": shown escaped rather than lost in a traceback.
+            print(text.encode("utf-8", "backslashreplace").decode("utf-8"))
         sys.stdout.flush()
     except BrokenPipeError:  # the reader stopped early (`| head`): not an error of ours
         os.dup2(os.open(os.devnull, os.O_WRONLY), sys.stdout.fileno())

@@ -14,6 +14,7 @@ import json
 import pytest
 
 import engine
+import engine.schedule
 from engine.schedule import (REQUIRED_COLUMNS, RESULT_COLUMNS, ScheduleError, check_schedule,
                              parse_schedule, run_schedule, schedule_csv)
 
@@ -348,3 +349,24 @@ def test_line_separators_inside_a_cell_do_not_move_row_numbers():
                                       "B-2\x0c,us,4000,60000,12,21.5,3.16,180", GOOD))
     assert [row.row for row in schedule.rows] == [2, 3, 4]
     assert all(row.computed for row in schedule.rows)
+
+
+def test_an_unexpected_error_in_one_rows_check_fails_that_row_only(monkeypatch):
+    # Issue 10 item 1: one row whose check raises must not cost the schedule. The fault is
+    # simulated (the engine's own crash is fixed in the engine); the other rows are computed.
+    real_check = engine.schedule.check
+
+    def faulty(**inputs):
+        if inputs["Mu"] == 20:
+            raise AssertionError("unreachable: N(upper) ≥ 0 by construction")
+        return real_check(**inputs)
+
+    monkeypatch.setattr(engine.schedule, "check", faulty)
+    schedule = run_schedule(_schedule(GOOD, "B-2,us,4000,40000,36,36,0.27,20", GOOD))
+    first, broken, last = schedule.rows
+    assert first.computed and last.computed
+    assert first.phiMn == pytest.approx(B101_PHI_MN, rel=1e-12)
+    assert not broken.computed and broken.message.startswith("row 3 (B-2): internal error in the check")
+    assert "AssertionError" in broken.message and "please report" in broken.message
+    assert schedule.summary.errors == 1 and schedule.summary.rows == 3
+    assert len(list(csv.reader(io.StringIO(schedule_csv(schedule))))) == 4

@@ -12,8 +12,8 @@ import json
 import sys
 
 from ..checks import CAUTION
-from ..errors import InputError
 from ..schedule import ScheduleError, check_schedule, parse_schedule, schedule_csv
+from .output_file import write_text
 
 EXIT_ROWS_NOT_COMPUTED = 1
 
@@ -54,12 +54,7 @@ def run_batch(args: argparse.Namespace) -> tuple[str, int]:
     status = EXIT_ROWS_NOT_COMPUTED if schedule.summary.errors else 0
     table = schedule_csv(schedule)
     if args.out is not None:
-        try:
-            with open(args.out, "w", encoding="utf-8", newline="") as file:
-                file.write(table)
-        except OSError as error:
-            raise InputError("out", args.out, "a file that can be written",
-                             why=error.strerror or str(error)) from None
+        write_text(args.out, table)
     if args.json:
         return json.dumps({**schedule.to_dict(), "caution": CAUTION}, ensure_ascii=False), status
     if args.out is None:
