@@ -564,17 +564,40 @@ def output_columns(schedule: Schedule | ParsedSchedule) -> tuple[int, ...]:
                  if name and _CANONICAL.get(name.lower()) not in RESULT_COLUMNS)
 
 
+_FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r", "\n")
+
+
+def spreadsheet_safe(text: str) -> str:
+    """`text` as a results cell that a spreadsheet shows and never runs.
+
+    The OWASP rule against CSV injection: a cell that starts with `=`, `+`,
+    `-`, `@`, a tab or a line break (after any spaces) is a formula to
+    Excel, LibreOffice and Google Sheets, which may fetch links or start
+    programs when the file is opened; a single quote before it makes it
+    text. A plain number such as -12.5 cannot run and stays a number.
+    """
+    start = text.lstrip(" ")[:1]
+    if start and start in _FORMULA_STARTS and not _NUMBER_TEXT.fullmatch(text.strip()):
+        return "'" + text
+    return text
+
+
 def schedule_csv(schedule: Schedule) -> str:
     """The schedule as CSV: its input columns as given, then `RESULT_COLUMNS`.
 
     Numbers are written in full (the shortest text that reads back as the
     engine's float), so a spreadsheet rounds them for display, not the file.
+    Every text that came from the file (header, cells, messages quoting
+    them) passes through `spreadsheet_safe`; the numbers Rhoscope computed
+    are written as numbers.
     """
     positions = output_columns(schedule)
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\n")
-    writer.writerow([schedule.columns[i] for i in positions] + list(RESULT_COLUMNS))
+    writer.writerow([spreadsheet_safe(schedule.columns[i]) for i in positions]
+                    + list(RESULT_COLUMNS))
     for row in schedule.rows:
-        writer.writerow([row.raw[i] for i in positions]
-                        + [_cell(getattr(row, name)) for name in RESULT_COLUMNS])
+        writer.writerow([spreadsheet_safe(row.raw[i]) for i in positions]
+                        + [_cell(getattr(row, name)) for name in RESULT_COLUMNS[:-1]]
+                        + [spreadsheet_safe(row.message)])
     return out.getvalue()

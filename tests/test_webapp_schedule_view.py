@@ -199,3 +199,14 @@ def test_a_row_whose_check_raises_is_an_error_row_and_the_run_ends(monkeypatch):
     assert view.source.data["ok"].count("error") == 2  # B-104 and the other Mu = 300 beam
     assert "internal error in the check" in view.notes.object
     assert schedule.summary.errors == 2
+
+
+def test_the_page_download_neutralises_formulas_like_the_cli():
+    # Issue 10 item 4 (OWASP CSV injection rule): the page writes the engine's CSV.
+    view = ScheduleView()
+    run(view, "mark,units,fc,fy,b,d,As,Mu,=cmd\n"
+              "=HYPERLINK(\"http://attacker.example\"),us,4000,60000,12,21.5,3.16,180,@SUM(1+1)\n")
+    downloaded = view._download_file().getvalue().decode("utf-8")
+    assert downloaded.splitlines()[0].endswith(",'=cmd,phiMn,section_class,eps_t,utilization,ok,message")
+    assert downloaded.splitlines()[1].startswith("\"'=HYPERLINK(\"\"http://attacker.example\"\")\",us,")
+    assert ",'@SUM(1+1)," in downloaded
