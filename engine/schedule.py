@@ -241,7 +241,7 @@ def _records(lines: list[str], start: int, delimiter: str,
 
     A record the `csv` module refuses (a quote never closed, text after a
     closing quote, a cell over its size limit), or one that spans several
-    lines where `line_breaks_allowed` says a line break cannot be, is
+    lines where `line_breaks_allowed(cells)` says a line break cannot be, is
     reported at its first line; reading starts again on the next line, so
     one stray quote does not swallow the rows after it.
     """
@@ -282,10 +282,23 @@ def _csv_problem(error: str) -> str:
 
 
 def _line_breaks_allowed(cells: list[str], layout: "_Layout") -> bool:
-    """Whether a record spanning lines is believable: it fits the header, and only cells
-    of columns Rhoscope does not read (notes) hold line breaks."""
-    return len(cells) <= layout.width and all(
-        i in layout.carried for i, cell in enumerate(cells) if "\n" in cell or "\r" in cell)
+    """Whether a record spanning lines is believable as one row with a note on several lines.
+
+    It must fit the header; only cells of columns Rhoscope does not read (notes)
+    may hold line breaks; and no line inside such a cell may look like a row of
+    its own (as many separators as the header has), which is what a stray
+    quote that closes lines later would swallow.
+    """
+    if len(cells) > layout.width:
+        return False
+    enough = max(layout.width - 1, 1)
+    for i, cell in enumerate(cells):
+        if "\n" in cell or "\r" in cell:
+            if i not in layout.carried:
+                return False
+            if any(line.count(layout.delimiter) >= enough for line in _LINE_BREAK.split(cell)):
+                return False
+    return True
 
 
 def _unreadable_row(number: int, line: str, problem: str, layout: "_Layout") -> ScheduleRow:

@@ -419,3 +419,16 @@ def test_numbers_stay_numbers_in_the_results_file():
     out = list(csv.DictReader(io.StringIO(schedule_csv(negative))))[0]
     assert (out["level"], out["offset"]) == ("-2", "+3.5")
     assert (out["eps_t"], out["phiMn"]) == ("-0.0012", "-1.5")
+
+
+def test_a_stray_quote_in_a_note_does_not_swallow_the_rows_to_the_next_one():
+    # The quote opens in row 2's note and a stray one closes at the end of row 4's note: read
+    # naively, rows 3 and 4 would vanish into one note. Whole rows inside a cell mean a stray quote.
+    header = HEADER + ",note"
+    schedule = run_schedule(_schedule(GOOD + ',"see B-3', GOOD.replace("B-101", "B-3") + ",x",
+                                      GOOD.replace("B-101", "B-4") + ',y"',
+                                      GOOD.replace("B-101", "B-5") + ",z", header=header))
+    assert [(row.row, row.mark) for row in schedule.rows][:2] == [(2, "B-101"), (3, "B-3")]
+    assert not schedule.rows[0].computed and "quote" in schedule.rows[0].message
+    assert schedule.rows[1].computed and schedule.rows[-1].mark == "B-5"
+    assert {row.row for row in schedule.rows} == {2, 3, 4, 5}
