@@ -578,6 +578,7 @@ def output_columns(schedule: Schedule | ParsedSchedule) -> tuple[int, ...]:
 
 
 _FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r", "\n")
+_FIRST_CHARACTERS_TO_LOOK_AT = frozenset("=+-@\t\r\n ")
 
 
 def spreadsheet_safe(text: str) -> str:
@@ -589,6 +590,8 @@ def spreadsheet_safe(text: str) -> str:
     programs when the file is opened; a single quote before it makes it
     text. A plain number such as -12.5 cannot run and stays a number.
     """
+    if not text or text[0] not in _FIRST_CHARACTERS_TO_LOOK_AT:
+        return text  # the usual case, decided by one character
     start = text.lstrip(" ")[:1]
     if start and start in _FORMULA_STARTS and not _NUMBER_TEXT.fullmatch(text.strip()):
         return "'" + text
