@@ -13,7 +13,14 @@ empty column are fine; tab- and semicolon-separated text (pasted from a
 spreadsheet) is recognised from the header. A bad cell fails only its own
 row, with a message naming the row (its line in the file, header = 1), the
 column and the value. Decimal commas are refused: "3,16" would silently
-mean something else to half the world's spreadsheets.
+mean something else to half the world's spreadsheets. A row with more cells
+than the header has columns (what a decimal comma does to a comma-separated
+row) is not read at all; missing cells at a row's end are blank. A line
+that is not CSV (a stray quote, a cell over the `csv` size limit) fails
+alone, and the lines after it are read as usual.
+
+The results CSV is safe to open in a spreadsheet: text from the file that
+a spreadsheet would run as a formula gets a leading quote (`spreadsheet_safe`).
 
 Results are in each row's own units (kip·ft or kN·m for φMn).
 """
