@@ -292,18 +292,18 @@ def _line_breaks_allowed(cells: list[str], layout: "_Layout") -> bool:
     """Whether a record spanning lines is believable as one row with a note on several lines.
 
     It must fit the header; only cells of columns Rhoscope does not read (notes)
-    may hold line breaks; and no line inside such a cell may look like a row of
-    its own (as many separators as the header has), which is what a stray
-    quote that closes lines later would swallow.
+    may hold line breaks; and such a cell may not hold as many separators as a
+    row has. A stray quote in column k that a quote in column j of a later line
+    closes makes a record that fits the header only when j ≥ k, and then the
+    cell holds the rest of the first row and the start of the last, at least
+    width − 1 separators: whole rows, swallowed.
     """
     if len(cells) > layout.width:
         return False
     enough = max(layout.width - 1, 1)
     for i, cell in enumerate(cells):
         if "\n" in cell or "\r" in cell:
-            if i not in layout.carried:
-                return False
-            if any(line.count(layout.delimiter) >= enough for line in _LINE_BREAK.split(cell)):
+            if i not in layout.carried or cell.count(layout.delimiter) >= enough:
                 return False
     return True
 
