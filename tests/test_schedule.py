@@ -435,12 +435,13 @@ def test_a_stray_quote_in_a_note_does_not_swallow_the_rows_to_the_next_one():
 
 
 def test_a_stray_quote_closed_in_the_middle_of_a_later_row_swallows_nothing():
-    # Found by the schedule fuzz: a quote opening row 2's note and a quoted note in row 3
-    # closing it leave a record of exactly the header's width, with row 3's last cells.
-    header = "mark,units,fc,fy,b,d,note,As,Mu"
+    # Found by the schedule fuzz: a quote opening row 2's note, closed by a quoted cell of row 3
+    # that starts with the separator, leaves a record of exactly the header's width whose last
+    # cells are row 3's: read as one row, row 2 would compute with row 3's As and Mu.
+    header = "mark,units,fc,fy,b,d,note,other,As,Mu"
     schedule = run_schedule(header + "\n"
                             'B-1,si,25,500,400,450,"north bay,1,2,3\n'
-                            'B-2,us,4000,60000,12,21.5,"level 2",3.16,180\n')
+                            'B-2,us,4000,60000,12,21.5,level 2,",x",3.16,180\n')
     assert [(row.row, row.mark, row.computed) for row in schedule.rows] == [
         (2, "B-1", False), (3, "B-2", True)]
     assert schedule.rows[1].inputs == dict(units="us", fc=4000.0, fy=60000.0, b=12.0, d=21.5,
