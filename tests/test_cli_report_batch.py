@@ -10,6 +10,9 @@ from __future__ import annotations
 import csv
 import io
 import json
+import os
+import subprocess
+import sys
 from pathlib import Path
 
 import pytest
@@ -227,3 +230,95 @@ def test_batch_to_stdout_keeps_the_csv_clean_and_cautions_on_stderr(capsys):
     captured = capsys.readouterr()
     assert CAUTION not in captured.out and CAUTION in captured.err
     assert captured.out.startswith("mark,")
+
+
+def _raising_for_mu(mu):
+    """engine.check that raises for one Mu: a stand-in for a crash inside the engine."""
+    import engine.schedule
+
+    real_check = engine.schedule.check
+
+    def faulty(**inputs):
+        if inputs.get("Mu") == mu:
+            raise ZeroDivisionError("float division by zero")
+        return real_check(**inputs)
+
+    return faulty
+
+
+def test_batch_survives_a_row_whose_check_raises(tmp_path, capsys, monkeypatch):
+    # Issue 10 item 1: one row must never abort the schedule; the results file is written.
+    import engine.schedule
+
+    monkeypatch.setattr(engine.schedule, "check", _raising_for_mu(520.0))  # B-203 alone
+    out = tmp_path / "results.csv"
+    assert main(["batch", str(DEMO), "--out", str(out)]) == 1  # a row could not be computed
+    printed = capsys.readouterr().out
+    assert "13 beams:" in printed and "1 could not be computed" in printed
+    rows = list(csv.DictReader(out.open(encoding="utf-8")))
+    assert len(rows) == 13  # every beam of the demo file, the broken one included
+    broken = [row for row in rows if row["Mu"] == "520"]
+    assert len(broken) == 1 and broken[0]["ok"] == "" and broken[0]["phiMn"] == ""
+    assert "internal error in the check: ZeroDivisionError" in broken[0]["message"]
+    assert "please report" in broken[0]["message"]
+    assert sum(row["phiMn"] != "" for row in rows) == 12
+
+
+NON_UTF8 = b"Harbourline \xff Depot"
+
+
+@pytest.mark.parametrize("flag", ["--project", "--mark", "--engineer", "--link-base"])
+def test_report_refuses_text_that_is_not_utf8_and_keeps_the_old_sheet(tmp_path, capsys, flag):
+    # Issue 10 item 8: bytes that are not UTF-8 reach argv as lone surrogates (PEP 383).
+    out = tmp_path / "B-101.html"
+    out.write_text("the sheet written yesterday", encoding="utf-8")
+    argv = ["report", *B101_FLAGS, "--out", str(out), flag, os.fsdecode(NON_UTF8)]
+    assert main(argv) == 2
+    err = capsys.readouterr().err
+    assert err.count("\n") == 1 and f"{flag[2:]}:" in err and "0xff" in err
+    assert out.read_text(encoding="utf-8") == "the sheet written yesterday"
+    assert [path.name for path in tmp_path.iterdir()] == ["B-101.html"]  # no temporary file left
+
+
+def test_report_with_non_utf8_bytes_as_a_user_runs_it(tmp_path):
+    import engine
+
+    out = tmp_path / "B-101.html"
+    out.write_bytes(b"old")
+    done = subprocess.run([sys.executable, "-m", "engine", "report", *B101_FLAGS, "--out",
+                           str(out), "--engineer", b"A. Ch\xe9cker"], capture_output=True,
+                          cwd=Path(engine.__file__).resolve().parent.parent, timeout=60)
+    assert done.returncode == 2 and b"Traceback" not in done.stderr
+    assert done.stderr.count(b"\n") == 1 and b"engineer:" in done.stderr
+    assert out.read_bytes() == b"old"
+
+
+@pytest.mark.parametrize("command", ["report", "batch"])
+def test_a_failed_write_leaves_the_existing_file_whole(tmp_path, capsys, monkeypatch, command):
+    # The write fails half way (text that cannot be encoded): the old file must survive.
+    import engine.commands.batch
+    import engine.commands.report
+
+    out = tmp_path / "existing.out"
+    out.write_text("the results of last week", encoding="utf-8")
+    if command == "report":
+        monkeypatch.setattr(engine.commands.report, "calculation_sheet",
+                            lambda *args, **kwargs: "<!DOCTYPE html>\udcff")
+        argv = ["report", *B101_FLAGS, "--out", str(out)]
+    else:
+        monkeypatch.setattr(engine.commands.batch, "schedule_csv", lambda schedule: "mark\n\udcff")
+        argv = ["batch", str(DEMO), "--out", str(out)]
+    assert main(argv) == 2
+    assert "out:" in capsys.readouterr().err
+    assert out.read_text(encoding="utf-8") == "the results of last week"
+    assert [path.name for path in tmp_path.iterdir()] == ["existing.out"]
+
+
+def test_an_output_file_replaces_the_old_one_with_ordinary_permissions(tmp_path, capsys):
+    out = tmp_path / "results.csv"
+    out.write_text("old", encoding="utf-8")
+    assert main(["batch", str(DEMO), "--out", str(out)]) == 0
+    assert out.read_text(encoding="utf-8").startswith("mark,")
+    umask = os.umask(0)
+    os.umask(umask)
+    assert out.stat().st_mode & 0o777 == 0o666 & ~umask  # as open() would create it

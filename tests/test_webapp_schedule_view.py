@@ -153,3 +153,60 @@ def test_a_bad_upload_clears_the_last_results():
     assert run(view, "mark,units,fc\nB-1,us,4000\n") is None  # readable bytes, no schedule
     assert "lacks the column" in view.status.object
     assert view.summary.object == "" and view.notes.object == "" and view.schedule is None
+
+
+# Issue 10 item 3: the page reads uploads and pastes with the engine's reader, so a row
+# shifted by a decimal comma fails there too (the reference is the engine's own reader).
+SHIFTED = ("mark,units,fc,fy,b,d,As,Mu,dt\n"
+           "B-7,us,4000,60000,14,21.5,1,58,190,\n"
+           "B-8,us,4000,60000,14,21.5,1.58,190,\n")
+
+
+def test_a_decimal_comma_fails_its_row_through_upload_and_paste(monkeypatch):
+    view = ScheduleView()
+    started: list[str] = []
+    monkeypatch.setattr(view, "start", started.append)
+    view.upload.value = SHIFTED.encode("utf-8")
+    view.paste.value_input = SHIFTED.replace(",", "\t")  # as typed or pasted in the browser
+    view._on_run(None)
+    assert started == [SHIFTED, SHIFTED.replace(",", "\t")]
+    for text in started:
+        schedule = run(view, text)
+        shifted, meant = schedule.rows
+        assert not shifted.computed and "10 cells" in shifted.message
+        assert meant.computed and meant.inputs["As"] == 1.58 and meant.inputs["Mu"] == 190.0
+        assert view.source.data["ok"] == ["error", "FAIL"]
+        assert "10 cells" in view.notes.object
+        assert view.results_csv() == schedule_csv(run_schedule(text))
+
+
+def test_a_row_whose_check_raises_is_an_error_row_and_the_run_ends(monkeypatch):
+    # Issue 10 item 1: the schedule tab stuck when one row's check raised.
+    import engine.schedule
+
+    real_check = engine.schedule.check
+
+    def faulty(**inputs):
+        if inputs["Mu"] == 300:
+            raise AssertionError("unreachable")
+        return real_check(**inputs)
+
+    monkeypatch.setattr(engine.schedule, "check", faulty)
+    view = ScheduleView()
+    schedule = run(view, DEMO)
+    assert not view.running and not view.download.disabled
+    assert len(view.source.data["mark"]) == 13
+    assert view.source.data["ok"].count("error") == 2  # B-104 and the other Mu = 300 beam
+    assert "internal error in the check" in view.notes.object
+    assert schedule.summary.errors == 2
+
+
+def test_the_page_download_neutralises_formulas_like_the_cli():
+    # Issue 10 item 4 (OWASP CSV injection rule): the page writes the engine's CSV.
+    view = ScheduleView()
+    run(view, "mark,units,fc,fy,b,d,As,Mu,=cmd\n"
+              "=HYPERLINK(\"http://attacker.example\"),us,4000,60000,12,21.5,3.16,180,@SUM(1+1)\n")
+    downloaded = view._download_file().getvalue().decode("utf-8")
+    assert downloaded.splitlines()[0].endswith(",'=cmd,phiMn,section_class,eps_t,utilization,ok,message")
+    assert downloaded.splitlines()[1].startswith("\"'=HYPERLINK(\"\"http://attacker.example\"\")\",us,")
+    assert ",'@SUM(1+1)," in downloaded

@@ -220,6 +220,10 @@ class ScheduleView(pn.viewable.Viewer):
         except ScheduleError as error:
             self._fail(str(error))
             return None
+        except Exception as error:  # noqa: BLE001 - a bug must end in a message, not a stuck run
+            self._fail(f"internal error while reading the schedule: {type(error).__name__}; "
+                       "please report it with the file")
+            return None
         total = len(parsed.rows)
         self.running = True
         self.progress.param.update(value=0, max=max(total, 1), visible=True)

@@ -12,8 +12,9 @@ import json
 import sys
 
 from ..checks import CAUTION
-from ..errors import InputError
+from ..errors import QUOTE_LIMIT, quoted
 from ..schedule import ScheduleError, check_schedule, parse_schedule, schedule_csv
+from .output_file import write_text
 
 EXIT_ROWS_NOT_COMPUTED = 1
 
@@ -37,12 +38,24 @@ def read_text(path: str) -> str:
         with open(path, "rb") as file:
             data = file.read()
     except OSError as error:
-        raise ScheduleError(f"{path}: cannot be read ({error.strerror or error})") from None
+        raise ScheduleError(f"{shown_path(path)}: cannot be read "
+                            f"({error.strerror or error})") from None
+    except (ValueError, UnicodeError):  # a NUL in the name, or a name no file system holds
+        raise ScheduleError(f"{shown_path(path)}: cannot be read "
+                            "(not a possible file name)") from None
     try:
         return data.decode("utf-8-sig")
     except UnicodeDecodeError as error:
-        raise ScheduleError(f"{path}: not UTF-8 text (byte {error.start}); save the "
+        raise ScheduleError(f"{shown_path(path)}: not UTF-8 text (byte {error.start}); save the "
                             "spreadsheet as 'CSV UTF-8'") from None
+
+
+def shown_path(path: str) -> str:
+    """`path` as a one-line message shows it: as given, or quoted (shortened) when it is long
+    or holds characters that would break the line."""
+    if len(path) <= QUOTE_LIMIT and path.isprintable():
+        return path
+    return quoted(path)
 
 
 def run_batch(args: argparse.Namespace) -> tuple[str, int]:
@@ -50,16 +63,11 @@ def run_batch(args: argparse.Namespace) -> tuple[str, int]:
     try:
         schedule = check_schedule(parse_schedule(text))
     except ScheduleError as error:
-        raise ScheduleError(f"{args.schedule}: {error}") from None
+        raise ScheduleError(f"{shown_path(args.schedule)}: {error}") from None
     status = EXIT_ROWS_NOT_COMPUTED if schedule.summary.errors else 0
     table = schedule_csv(schedule)
     if args.out is not None:
-        try:
-            with open(args.out, "w", encoding="utf-8", newline="") as file:
-                file.write(table)
-        except OSError as error:
-            raise InputError("out", args.out, "a file that can be written",
-                             why=error.strerror or str(error)) from None
+        write_text(args.out, table)
     if args.json:
         return json.dumps({**schedule.to_dict(), "caution": CAUTION}, ensure_ascii=False), status
     if args.out is None:

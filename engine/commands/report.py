@@ -13,6 +13,7 @@ from ..errors import InputError
 from ..share_link import share_url
 from ..sheet import calculation_sheet
 from .arguments import add_section_flags, parse_float, section_inputs
+from .output_file import write_text
 
 DEFAULT_LINK_BASE = "http://localhost:8000/"
 """A placeholder for where the team hosts the app (`make run` serves it here)."""
@@ -82,7 +83,27 @@ def qr_svg(text: str) -> str | None:
         return None
 
 
+def text_flag(flag: str, value: str) -> str:
+    """`value` of a text flag, or an `InputError` naming `flag` when it is not UTF-8 text.
+
+    Bytes that are not UTF-8 reach Python as lone surrogates (PEP 383); the
+    sheet is UTF-8 and could not hold them, so they are refused before any
+    file is touched.
+    """
+    try:
+        value.encode("utf-8")
+    except UnicodeEncodeError as error:
+        code = ord(value[error.start])
+        byte = f"the byte 0x{code - 0xDC00:02x}" if 0xDC80 <= code <= 0xDCFF else "a character"
+        raise InputError(flag, value, "UTF-8 text",
+                         why=f"{byte} at character {error.start + 1} is not UTF-8") from None
+    return value
+
+
 def run_report(args: argparse.Namespace) -> str:
+    for flag, value in (("project", args.project), ("mark", args.mark),
+                        ("engineer", args.engineer), ("link-base", args.link_base)):
+        text_flag(flag, value)
     inputs = report_inputs(args)
     date = parse_date(args.date)
     result = check(**inputs)
@@ -96,12 +117,7 @@ def run_report(args: argparse.Namespace) -> str:
               "or the link is too long for one)", file=sys.stderr)
     sheet = calculation_sheet(inputs, project=args.project, mark=args.mark,
                               engineer=args.engineer, date=date, link=link, qr_svg=qr)
-    try:
-        with open(args.out, "w", encoding="utf-8") as file:
-            file.write(sheet)
-    except OSError as error:
-        raise InputError("out", args.out, "a file that can be written",
-                         why=error.strerror or str(error)) from None
+    write_text(args.out, sheet)
     if args.json:
         return json.dumps({"out": args.out, "link": link, **result.to_dict()}, ensure_ascii=False)
     verdict = "all checks pass" if result.ok else "fails " + ", ".join(
