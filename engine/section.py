@@ -89,7 +89,10 @@ class BeamSection:
     def with_tension_area(self, As: float) -> "BeamSection":
         """The same section with every tension layer scaled to a total of `As` (> 0)."""
         factor = As / self.As
-        layers = tuple(SteelLayer(layer.area * factor, layer.depth, layer.role)
+        # One layer takes As itself: As/A·A can differ from As by an ulp, and a
+        # check of As as given must see the very area searched for.
+        single = len(self.tension_layers) == 1
+        layers = tuple(SteelLayer(As if single else layer.area * factor, layer.depth, layer.role)
                        if layer.role is Role.TENSION else layer for layer in self.layers)
         return BeamSection(self.system, self.fc, self.fy, self.es, self.bw, layers, self.dt,
                            self.h, self.flange, self.spiral)
