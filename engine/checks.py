@@ -80,7 +80,8 @@ class FlexuralCheck:
         result = {
             "units": beam.system.name,
             "beta1": s.beta1, "eps_ty": s.eps_ty, "a": s.a, "c": s.c,
-            "eps_t": s.eps_t, "eps_s": s.eps_s, "fs": s.fs, "steel_yields": s.steel_yields,
+            "eps_t": s.eps_t, "fs_t": s.fs_t, "eps_s": s.eps_s, "fs": s.fs,
+            "steel_yields": s.steel_yields,
             "phi": s.phi, "Mn": self.Mn, "phiMn": self.phiMn,
             "rho": self.rho, "As": beam.As,
             "As_min": lim.As_min.value, "As_min_sqrt_term": lim.As_min.sqrt_term,
