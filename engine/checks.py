@@ -130,7 +130,7 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
     As_req = None
     if Mu is not None and beam.As < limits.As_min.value:  # only 9.6.1.3 needs it
         As_req = _required_steel(beam, Mu)
-    warnings = scope_warnings(beam)
+    warnings = scope_warnings(beam) + _dt_warnings(beam)
     if not state.steel_yields:
         u = beam.system
         elastic = [f"{ls.stress:.5g} {u.stress} at {ls.layer.depth:g} {u.length}"
@@ -152,6 +152,23 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
         checks += (_strength_check(beam, phiMn, Mu),)
     return FlexuralCheck(beam=beam, state=state, limits=limits, Mn=Mn, phiMn=phiMn, Mu=Mu,
                          checks=checks, warnings=warnings)
+
+
+# dt beyond the deepest layer given by more than this fraction of it is warned:
+# a lumped layer stands for bars a layer or two apart (25.2.2), not for steel
+# a quarter of the depth lower.
+_DT_BELOW_STEEL = 0.25
+
+
+def _dt_warnings(beam: BeamSection) -> tuple[str, ...]:
+    """A dt far below every tension layer given: εt, φ and 9.3.3.1 are read there."""
+    deepest = max(layer.depth for layer in beam.tension_layers)
+    if beam.dt <= (1 + _DT_BELOW_STEEL) * deepest:
+        return ()
+    L = beam.system.length
+    return (f"dt = {beam.dt:g} {L} lies {beam.dt - deepest:.4g} {L} below the deepest tension "
+            f"layer given ({deepest:g} {L}). dt is the depth of the extreme tension steel "
+            f"(ACI 318-19 2.2); εt, φ (Table 21.2.2) and 9.3.3.1 are read there, so check it.",)
 
 
 def _unreachable_limit_warnings(beam: BeamSection, limits: ReinforcementLimits,

@@ -143,7 +143,7 @@ def unreachable_reason(beam: BeamSection, eps_t: float, what: str) -> str:
         return (f"the steel given as compression steel lies below the neutral axis and pulls, "
                 f"so εt stays below {what} whatever the tension steel area")
     return (f"the layers given as tension steel, taken together, are in compression there "
-            f"(they lie too near the top), so εt stays above {what} whatever their area")
+            f"(they lie too far above dt), so εt stays above {what} whatever their area")
 
 
 def reinforcement_limits(beam: BeamSection) -> ReinforcementLimits:

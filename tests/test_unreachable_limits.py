@@ -57,7 +57,7 @@ def test_tension_layers_that_push_leave_every_strain_limit_unreachable():
                           Mu=20)
     limits = result.to_dict()
     assert limits["As_tc"] is None and limits["As_max"] is None and limits["As_b"] is None
-    assert sum("too near the top" in w for w in result.warnings) == 3
+    assert sum("too far above dt" in w for w in result.warnings) == 3
 
 
 def test_as_required_with_pushing_tension_layers_against_brentq():
