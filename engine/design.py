@@ -22,19 +22,20 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, replace
 
-from .arrangement import (Arrangement, arrange, bars_that_fit, distributions, fits_within,
-                          nearest_distribution, side_cover)
+from .arrangement import (Arrangement, arrange, bars_that_fit, clear_spacing, distributions,
+                          fits_within, nearest_distribution, side_cover)
 from .bars import DEFAULT_STIRRUP, STIRRUP_NUMBERS, Bar, bar as standard_bar, bars as standard_bars_in
 from .bars import standard_bars
 from .checks import CAUTION, CodeCheck, check_beam
 from .detailing import (DEFAULT_AGGREGATE, Exposure, Support, maximum_bar_spacing, minimum_clear_spacing,
-                        minimum_cover, minimum_depth, minimum_layer_gap, minimum_steel_satisfied,
+                        minimum_cover, minimum_depth, minimum_layer_gap, minimum_steel_area,
+                        minimum_steel_satisfied,
                         service_stress, skin_depth_limit, skin_reinforcement_required)
 from .errors import InputError
 from .flexure import analyse
 from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
 from .materials import yield_strain
-from .required_steel import required_steel
+from .required_steel import design_moment, required_steel
 from .section import BeamSection, SteelLayer
 from .strength_reduction import TENSION_CONTROL_MARGIN
 from .units import UnitSystem, unit_system
@@ -305,6 +306,13 @@ def _best_for_bar(section: DesignSection, bar: Bar, Mu_base: float) -> BarOption
     (no arrangement of this bar is deeper) and rise until an arrangement
     works, the bars no longer fit, or εt drops below 0.004 (more steel only
     lowers it: dt is the same for every count of one bar size).
+
+    The work is bounded by what could pass. Once the nearest miss is settled
+    (the first count strong enough), counts that no rule lets pass are
+    skipped: fewer bars than crack control (24.3.2) or As,min (9.6.1.2, or
+    4/3 As,req by 9.6.1.3) need, more than fit (25.2.1, 25.2.2), and every
+    count when the cover (Table 20.5.1.3.1) fails for this bar. Layouts that
+    a count-free rule already fails are not analysed.
     """
     s_min = minimum_clear_spacing(section.system, bar.db, section.aggregate)
     s_max = maximum_bar_spacing(section.system, section.fs, section.cc)
@@ -313,27 +321,130 @@ def _best_for_bar(section: DesignSection, bar: Bar, Mu_base: float) -> BarOption
                         bar=bar, per_layer=(2,), layer_gap=section.layer_gap)
     As_lower = required_steel(section.arranged_beam(one_layer), Mu_base)
     start = 2 if As_lower is None else max(2, math.ceil(As_lower / bar.area - 1e-9))
-    first_strong = last_within = last = None
-    for count in range(start, start + _MAX_BARS):
+
+    def head_of(count: int) -> tuple[BarOption, tuple[tuple[int, ...], ...]]:
+        """The first layout's option (the one the nearest miss is judged by) and all layouts."""
         layouts = distributions(count, fits, section.max_layers)
-        placed = bool(layouts)
-        if not placed:
-            layouts = (nearest_distribution(count, section.max_layers),)
-        head = None
-        for layout in layouts:
-            option = _evaluate(section, bar, layout, s_min, s_max)
-            if option.ok:
-                return option
-            head = head or option
+        shown = layouts or (nearest_distribution(count, section.max_layers),)
+        return _evaluate(section, bar, shown[0], s_min, s_max), layouts
+
+    if As_lower is None:
+        return _nearest_miss_out_of_reach(section, start, lambda count: head_of(count)[0])
+    cover_ok = _cover_ok(section, bar)
+    most = fits if section.max_layers < 2 else 2 * fits  # the most bars that can be placed
+    # As,min (9.6.1.2) is least at the shallowest d of any arrangement: the upper layer's.
+    d_low = one_layer.dt - (bar.db + section.layer_gap if section.max_layers > 1 else 0.0)
+    As_min_low = minimum_steel_area(section.system, section.fc, section.fy, section.b,
+                                    max(d_low, 0.0))
+    fewest = _fewest_that_could_pass(section, bar, fits, s_max, As_lower, As_min_low)
+    first_strong = last_within = last = None
+    count = start
+    while count < start + _MAX_BARS:
+        head, layouts = head_of(count)
+        if head.ok:
+            return head
+        if cover_ok and _shallower_could_pass(head, As_min_low):
+            for layout in layouts[1:]:
+                if _layout_could_pass(section, bar, layout, s_max):
+                    option = _evaluate(section, bar, layout, s_min, s_max)
+                    if option.ok:
+                        return option
         last = head
         within = head.eps_t >= EPS_T_BEAM_MINIMUM
         if within:
             last_within = head
         if first_strong is None and head.phiMn >= section.Mu:
             first_strong = head
-        if not within or (not placed and first_strong is not None):
+        if not within or (not layouts and first_strong is not None):
             break
+        if first_strong is None:
+            count += 1
+            continue
+        # The nearest miss is settled: only an arrangement that passes can change the answer.
+        if not cover_ok or fewest is None or max(count + 1, fewest) > most:
+            break
+        count = max(count + 1, fewest)
     return first_strong or last_within or last
+
+
+def _nearest_miss_out_of_reach(section: DesignSection, start: int, head_of) -> BarOption:
+    """The nearest miss of one bar size when Mu is out of reach within εt ≥ 0.004.
+
+    No count then carries Mu with εt ≥ 0.004 (none does at the deepest, one-layer
+    depth), so none passes: the answer is the most bars with εt ≥ 0.004, or the
+    first count past that if it carries Mu, as a count-by-count search finds it.
+    εt falls as bars are added, so the last count within 9.3.3.1 is found by
+    bisection.
+    """
+    low, high = start, start + _MAX_BARS - 1
+    first = head_of(low)
+    if first.eps_t < EPS_T_BEAM_MINIMUM:
+        return first
+    top = head_of(high)
+    if top.eps_t >= EPS_T_BEAM_MINIMUM:
+        return top
+    within, beyond = first, top
+    while high - low > 1:  # head_of(low) within 9.3.3.1, head_of(high) not
+        middle = (low + high) // 2
+        option = head_of(middle)
+        if option.eps_t >= EPS_T_BEAM_MINIMUM:
+            low, within = middle, option
+        else:
+            high, beyond = middle, option
+    return beyond if beyond.phiMn >= section.Mu else within
+
+
+def _shallower_could_pass(head: BarOption, As_min_low: float) -> bool:
+    """Whether a layout with fewer bars at the bottom could pass where `head` fails.
+
+    The same bars placed higher carry less (9.5.1.1) and need more steel for Mu
+    (so 9.6.1.3 waives no more); only As,min falls with d (9.6.1.2), and εt
+    (9.3.3.1), crack control and the layer gap are judged layout by layout.
+    """
+    failed = {rule.clause for rule in head.failed_rules}
+    if failed & {"9.5.1.1", "20.5.1.3.1", "25.2.1"}:
+        return False
+    return "9.6.1.2" not in failed or head.As >= As_min_low
+
+
+def _fewest_that_could_pass(section: DesignSection, bar: Bar, fits: int, s_max: float,
+                            As_lower: float, As_min_low: float) -> int | None:
+    """A count below which no arrangement of `bar` meets every rule; None if none can.
+
+    Crack control (24.3.2) needs bottom-layer spacing (inside − db)/(n − 1) ≤ s;
+    As,min (9.6.1.2) is least at the shallowest d any arrangement has (the upper
+    layer's depth), and 9.6.1.3's 4/3 As,req is at least 4/3 of As,req at the
+    deepest, one-layer depth. Both are lower bounds, so no passing count is lost.
+    """
+    if s_max <= 0:
+        return None
+    inside = section.b - 2 * side_cover(section.cover, section.stirrup)
+    crack = max(2, math.ceil(1 + (inside - bar.db) / (s_max * (1 + 1e-9))) - 1)
+    if crack > fits:
+        return None
+    steel = math.floor(min(As_min_low, 4.0 / 3.0 * As_lower) / bar.area)
+    return max(crack, steel, 2)
+
+
+def _cover_ok(section: DesignSection, bar: Bar) -> bool:
+    """Table 20.5.1.3.1 for the stirrup and for `bar`: the same for every count."""
+    u = section.system
+    return (fits_within(section.cover, minimum_cover(u, section.exposure, section.stirrup))
+            and fits_within(section.cc, minimum_cover(u, section.exposure, bar)))
+
+
+def _crack_spacing_ok(spacing: float, s_max: float) -> bool:
+    """Table 24.3.2: spacing of the bars nearest the tension face at most s."""
+    return spacing <= s_max * (1 + 1e-9)
+
+
+def _layout_could_pass(section: DesignSection, bar: Bar, layout: tuple[int, ...],
+                       s_max: float) -> bool:
+    """Whether `layout` meets the rules that need no analysis: 25.2.2 and 24.3.2."""
+    if len(layout) > 1 and not fits_within(section.layer_gap, minimum_layer_gap(section.system)):
+        return False
+    spacing = clear_spacing(section.b, section.cover, section.stirrup, bar, layout[0]) + bar.db
+    return _crack_spacing_ok(spacing, s_max)
 
 
 def _evaluate(section: DesignSection, bar: Bar, layout: tuple[int, ...], s_min: float,
@@ -395,7 +506,7 @@ def _arrangement_checks(section: DesignSection, arrangement: Arrangement, s_min:
             f"directly above the bottom ones"))
     cover_stirrup = minimum_cover(u, section.exposure, section.stirrup)
     cover_bar = minimum_cover(u, section.exposure, bar)
-    passed = fits_within(section.cover, cover_stirrup) and fits_within(section.cc, cover_bar)
+    passed = _cover_ok(section, bar)
     checks.append(CodeCheck(
         "20.5.1.3.1", "specified concrete cover", passed,
         f"stirrup {section.stirrup.designation}: {section.cover:.3g} {L} "
@@ -404,7 +515,7 @@ def _arrangement_checks(section: DesignSection, arrangement: Arrangement, s_min:
         f"{'≥' if fits_within(section.cc, cover_bar) else '<'} {cover_bar:g} {L} "
         f"({section.exposure.value})"))
     s = arrangement.centre_spacing
-    passed = s <= s_max * (1 + 1e-9)
+    passed = _crack_spacing_ok(s, s_max)
     checks.append(CodeCheck(
         "24.3.2", "bar spacing for crack control", passed,
         f"spacing of the bars nearest the tension face {s:.3g} {L} {'≤' if passed else '>'} "
@@ -483,12 +594,16 @@ def _concrete_needed(section: DesignSection, d: float) -> float | None:
 
     def reaches(fc: float) -> bool:
         beam = replace(section.beam(((1.0, d),)), fc=fc)
+        # The peak often lies at εt = 0.004 (Grade 60): one analysis settles those.
+        if design_moment(beam, steel_for_strain(beam, EPS_T_BEAM_MINIMUM)) >= Mu_base:
+            return True
         return largest_design_moment(beam)[0] >= Mu_base
 
     if not reaches(top):
         return None
     low, high = section.fc, top
-    for _ in range(40):
+    # To a thousandth of a psi or MPa: the remedy quotes f'c to the unit.
+    while high - low > 1e-3:
         middle = 0.5 * (low + high)
         low, high = (low, middle) if reaches(middle) else (middle, high)
     return high
