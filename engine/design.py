@@ -32,7 +32,6 @@ from .detailing import (DEFAULT_AGGREGATE, Exposure, Support, maximum_bar_spacin
                         minimum_steel_satisfied,
                         service_stress, skin_depth_limit, skin_reinforcement_required)
 from .errors import InputError
-from .flexure import analyse
 from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
 from .materials import yield_strain
 from .required_steel import design_moment, required_steel
@@ -270,8 +269,7 @@ def largest_design_moment(beam: BeamSection) -> tuple[float, float]:
     As_tc = min(steel_for_strain(beam, eps_ty + TENSION_CONTROL_MARGIN), As_max)
 
     def moment(As: float) -> float:
-        state = analyse(beam.with_tension_area(As))
-        return state.phi * state.Mn_base
+        return design_moment(beam, As)
 
     low, high = As_tc, As_max
     ratio = (math.sqrt(5) - 1) / 2
@@ -479,6 +477,8 @@ def _evaluate(section: DesignSection, bar: Bar, layout: tuple[int, ...], s_min: 
 
 
 def _with_required_steel(section: DesignSection, option: BarOption, Mu_base: float) -> BarOption:
+    if option.As_req is not None:  # found already, for 9.6.1.3, at this very arrangement
+        return option
     a = option.arrangement
     return replace(option, As_req=required_steel(section.arranged_beam(a), Mu_base))
 
@@ -592,20 +592,34 @@ def _concrete_needed(section: DesignSection, d: float) -> float | None:
     Mu_base = section.Mu * section.system.moment_to_base
     top = hard_maximum(section.system, "stress_fc")
 
-    def reaches(fc: float) -> bool:
-        beam = replace(section.beam(((1.0, d),)), fc=fc)
-        # The peak often lies at εt = 0.004 (Grade 60): one analysis settles those.
-        if design_moment(beam, steel_for_strain(beam, EPS_T_BEAM_MINIMUM)) >= Mu_base:
-            return True
-        return largest_design_moment(beam)[0] >= Mu_base
+    # φMn,max rises with f'c: the Illinois method on its shortfall, kept bracketed, to a
+    # thousandth of a psi or MPa (the remedy quotes f'c to the unit).
+    def shortfall(fc: float) -> float:
+        return largest_design_moment(replace(section.beam(((1.0, d),)), fc=fc))[0] - Mu_base
 
-    if not reaches(top):
+    f_high = shortfall(top)
+    if f_high < 0:
         return None
     low, high = section.fc, top
-    # To a thousandth of a psi or MPa: the remedy quotes f'c to the unit.
-    while high - low > 1e-3:
-        middle = 0.5 * (low + high)
-        low, high = (low, middle) if reaches(middle) else (middle, high)
+    f_low = shortfall(low)
+    side = 0
+    for _ in range(100):
+        if high - low <= 1e-3 or f_high == 0:
+            break
+        guess = (low * f_high - high * f_low) / (f_high - f_low)
+        if not low < guess < high:
+            guess = 0.5 * (low + high)
+        f_guess = shortfall(guess)
+        if f_guess >= 0:
+            high, f_high = guess, f_guess
+            if side == 1:
+                f_low *= 0.5  # the low end has gone stale: halve its weight
+            side = 1
+        else:
+            low, f_low = guess, f_guess
+            if side == -1:
+                f_high *= 0.5
+            side = -1
     return high
 
 
