@@ -2,9 +2,10 @@
 
 The sections come from `sections.py` (seeded, so each case is rebuilt from its
 seed); $RHOSCOPE_FUZZ_SECTIONS sets how many (`make fuzz` runs 100,000). For
-each, `engine.check` and its JSON and text forms must not raise, every number
-in the JSON must be finite (a limit no area reaches is null, never NaN), and
-the forces the result reports must balance. The balance is summed here from
+each, `engine.check` and its JSON and text forms (and, for one in ten, the
+capacity curve) must not raise, every number in the JSON must be finite (a
+limit no area reaches is null, never NaN), and the forces the result reports
+must balance. The balance is summed here from
 ACI 318-19 22.2, not by the engine: the block 0.85 f'c over a (22.2.2.4.1) on
 the flange, then the web, stopping at h; each layer's reported stress (tension
 positive, 20.2.2.1) times its area; 0.85 f'c deducted over each bar inside the
@@ -21,6 +22,7 @@ from engine.commands.check import summary
 from sections import cli_command, fuzz_count, sections
 
 RELATIVE_RESIDUAL = 1e-9  # of the largest force in the section
+CURVE_EVERY, CURVE_POINTS = 10, 16  # the capacity curve too, for one section in ten
 
 
 def block_force(kw: dict, a: float) -> float:
@@ -45,11 +47,14 @@ def relative_residual(kw: dict, result: dict) -> float:
     return abs(sum(forces)) / max(abs(f) for f in forces)
 
 
-def run_case(kw: dict) -> float:
-    """Check one section as the CLI would; returns the relative residual."""
+def run_case(kw: dict, with_curve: bool) -> float:
+    """Check one section as the CLI would (and its curve); returns the relative residual."""
     result = engine.check(**kw)
     data = json.loads(json.dumps(result.to_dict(), allow_nan=False))
     summary(result)
+    if with_curve:
+        section = {key: value for key, value in kw.items() if key != "Mu"}
+        json.dumps(engine.capacity_curve(points=CURVE_POINTS, **section).to_dict(), allow_nan=False)
     return relative_residual(kw, data)
 
 
@@ -59,7 +64,7 @@ def test_every_generated_section_computes_and_balances():
     failures, worst = [], (0.0, None, None)
     for seed, kw in sections(count):
         try:
-            residual = run_case(kw)
+            residual = run_case(kw, seed % CURVE_EVERY == 0)
         except Exception as error:  # noqa: BLE001: any exception is the failure being counted
             failures.append((seed, kw, f"{type(error).__name__}: {error}"))
             continue
