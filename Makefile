@@ -4,6 +4,7 @@
 #   make run          build, then serve build/ at http://localhost:8000 (first look offline; full page needs the Pyodide CDN)
 #   make serve        the app from a local Panel server at http://localhost:5006/ (offline)
 #   make bench        engine benchmarks in CPython and in Pyodide under Node
+#   make fuzz         the fuzz tests (tests/fuzz) at full size: 100,000 generated sections
 #   make test-online  build/ in Chromium with Pyodide from its CDN (skips when unreachable)
 #   make clean        remove generated files (build/, node_modules, caches); distclean also .venv
 
@@ -18,7 +19,7 @@ PORT ?= 8000
 SERVE_PORT ?= 5006
 PYTEST_ARGS ?=
 
-.PHONY: run test build bench test-online serve clean distclean venv pyodide
+.PHONY: run test build bench fuzz test-online serve clean distclean venv pyodide
 
 $(VENV)/.installed: pyproject.toml
 	@test -n "$(PYTHON)" || { echo "make: Rhoscope needs Python 3.11 or newer; none of python3, python3.13, python3.12, python3.11 is. Install one (e.g. apt-get install python3.11 python3.11-venv) and retry." >&2; exit 1; }
@@ -62,6 +63,11 @@ bench: venv pyodide
 	@if grep -rqsE --include='*.py' 'mark\.bench([^a-z_]|$$)' tests; then \
 		echo "make bench: browser latency benchmarks (-m bench)"; \
 		$(PY) -m pytest -m bench -q -rs -s tests; fi
+
+# The fuzz tests run in `make test` at a size that fits CI; here at full size.
+FUZZ_SECTIONS ?= 100000
+fuzz: venv
+	RHOSCOPE_FUZZ_SECTIONS=$(FUZZ_SECTIONS) $(PY) -m pytest tests/fuzz -q -s -p no:cacheprovider
 
 test-online: build
 	@echo "make test-online: Chromium against build/, with Pyodide from its CDN (skips with the reason when the CDN is unreachable)"

@@ -13,11 +13,12 @@ from dataclasses import dataclass
 from functools import cached_property
 
 from .flexure import FlexuralState, analyse
-from .limits import EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits
+from .limits import (EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits,
+                     unreachable_reason)
 from .required_steel import required_steel_for
 from .scope import scope_warnings
 from .section import BeamSection, Role, beam_section
-from .strength_reduction import STRAIN_ROUNDING
+from .strength_reduction import STRAIN_ROUNDING, TENSION_CONTROL_MARGIN
 from .units import quoted_moment
 from .validation import hard_maximum, in_range
 
@@ -79,7 +80,8 @@ class FlexuralCheck:
         result = {
             "units": beam.system.name,
             "beta1": s.beta1, "eps_ty": s.eps_ty, "a": s.a, "c": s.c,
-            "eps_t": s.eps_t, "eps_s": s.eps_s, "fs": s.fs, "steel_yields": s.steel_yields,
+            "eps_t": s.eps_t, "fs_t": s.fs_t, "eps_s": s.eps_s, "fs": s.fs,
+            "steel_yields": s.steel_yields,
             "phi": s.phi, "Mn": self.Mn, "phiMn": self.phiMn,
             "rho": self.rho, "As": beam.As,
             "As_min": lim.As_min.value, "As_min_sqrt_term": lim.As_min.sqrt_term,
@@ -128,7 +130,7 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
     As_req = None
     if Mu is not None and beam.As < limits.As_min.value:  # only 9.6.1.3 needs it
         As_req = _required_steel(beam, Mu)
-    warnings = scope_warnings(beam)
+    warnings = scope_warnings(beam) + _dt_warnings(beam)
     if not state.steel_yields:
         u = beam.system
         elastic = [f"{ls.stress:.5g} {u.stress} at {ls.layer.depth:g} {u.length}"
@@ -143,7 +145,8 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
                 f"The compression steel at d' = {ls.layer.depth:g} {beam.system.length} lies below "
                 f"the neutral axis (c = {state.c:.4g} {beam.system.length}) and is in tension "
                 f"(fs = {ls.stress:.5g} {beam.system.stress}); it is counted so (22.2.1.2, 20.2.2.1).",)
-    checks = (_minimum_steel_check(beam, limits, As_req),
+    warnings += _unreachable_limit_warnings(beam, limits, state.eps_ty)
+    checks = (_minimum_steel_check(beam, limits, As_req, Mu),
               _strain_limit_check(state))
     if Mu is not None:
         checks += (_strength_check(beam, phiMn, Mu),)
@@ -151,27 +154,66 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
                          checks=checks, warnings=warnings)
 
 
+# dt beyond the deepest layer given by more than this fraction of it is warned:
+# a lumped layer stands for bars a layer or two apart (25.2.2), not for steel
+# a quarter of the depth lower.
+_DT_BELOW_STEEL = 0.25
+
+
+def _dt_warnings(beam: BeamSection) -> tuple[str, ...]:
+    """A dt far below every tension layer given: εt, φ and 9.3.3.1 are read there."""
+    deepest = max(layer.depth for layer in beam.tension_layers)
+    if beam.dt <= (1 + _DT_BELOW_STEEL) * deepest:
+        return ()
+    L = beam.system.length
+    return (f"dt = {beam.dt:g} {L} lies {beam.dt - deepest:.4g} {L} below the deepest tension "
+            f"layer given ({deepest:g} {L}). dt is the depth of the extreme tension steel "
+            f"(ACI 318-19 2.2); εt, φ (Table 21.2.2) and 9.3.3.1 are read there, so check it.",)
+
+
+def _unreachable_limit_warnings(beam: BeamSection, limits: ReinforcementLimits,
+                                eps_ty: float) -> tuple[str, ...]:
+    """Why each limit that no positive tension steel area reaches is not given."""
+    named = (("As,tc", limits.As_tc, eps_ty + TENSION_CONTROL_MARGIN,
+              "the tension-controlled limit εt = εty + 0.003 (Table 21.2.2)"),
+             ("As,max", limits.As_max, EPS_T_BEAM_MINIMUM, "εt = 0.004 (9.3.3.1)"),
+             ("As,b", limits.As_b, eps_ty, "the balanced condition εt = εty (21.2.2)"))
+    return tuple(f"{name} is not given: {unreachable_reason(beam, eps_t, what)}."
+                 for name, area, eps_t, what in named if math.isinf(area))
+
+
 def _required_steel(beam: BeamSection, Mu: float | None) -> float | None:
     return None if Mu is None else required_steel_for(beam, Mu)
 
 
 def _minimum_steel_check(beam: BeamSection, limits: ReinforcementLimits,
-                         As_req: float | None) -> CodeCheck:
+                         As_req: float | None, Mu: float | None) -> CodeCheck:
     area = beam.system.area
     As_min = limits.As_min.value
     if beam.As >= As_min:
         return CodeCheck("9.6.1.2", "As ≥ As,min", True,
                          f"As = {beam.As:.4g} {area} ≥ As,min = {As_min:.4g} {area} "
                          f"({limits.As_min.governing} governs)")
-    # 9.6.1.3 rests on a demand found by analysis: with none (Mu = 0) it waives nothing.
-    if As_req is not None and As_req > 0 and beam.As >= 4 / 3 * As_req:
+    # 9.6.1.3: As,min need not be provided where As ≥ 4/3 of the As required by
+    # analysis. As,req never grows as Mu falls, so neither can this check fail
+    # where a larger Mu passed; As,req = 0 (other steel carries Mu) waives it too.
+    if As_req is not None and beam.As >= 4 / 3 * As_req:
+        why = " (the other steel carries Mu without it)" if As_req == 0 else ""
         return CodeCheck("9.6.1.3", "As ≥ As,min, or As ≥ 4/3 As,req", True,
                          f"As = {beam.As:.4g} {area} < As,min = {As_min:.4g} {area}, but "
-                         f"As ≥ 4/3 × As,req = {4 / 3 * As_req:.4g} {area}, so 9.6.1.2 is waived")
+                         f"As ≥ 4/3 × As,req = {4 / 3 * As_req:.4g} {area}{why}, "
+                         f"so 9.6.1.2 is waived")
+    if Mu is None:
+        waiver = "9.6.1.3 could waive it only with Mu given, where As ≥ 4/3 of the As required"
+    elif As_req is None:
+        waiver = (f"no tension steel area at this b, d and dt carries Mu = {Mu:.4g} "
+                  f"{beam.system.moment} with εt ≥ 0.004 (9.3.3.1), so there is no As,req "
+                  f"for 9.6.1.3 to waive it")
+    else:
+        waiver = f"9.6.1.3 waives it only where As ≥ 4/3 × As,req = {4 / 3 * As_req:.4g} {area}"
     return CodeCheck("9.6.1.2", "As ≥ As,min", False,
                      f"As = {beam.As:.4g} {area} < As,min = {As_min:.4g} {area} "
-                     f"({limits.As_min.governing} governs; 9.6.1.3 waives it only where "
-                     f"As ≥ 4/3 of the As required by analysis)")
+                     f"({limits.As_min.governing} governs; {waiver})")
 
 
 def _strain_limit_check(state: FlexuralState) -> CodeCheck:

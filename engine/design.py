@@ -22,19 +22,19 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, replace
 
-from .arrangement import (Arrangement, arrange, bars_that_fit, distributions, fits_within,
-                          nearest_distribution, side_cover)
+from .arrangement import (Arrangement, arrange, bars_that_fit, clear_spacing, distributions,
+                          fits_within, nearest_distribution, side_cover)
 from .bars import DEFAULT_STIRRUP, STIRRUP_NUMBERS, Bar, bar as standard_bar, bars as standard_bars_in
 from .bars import standard_bars
 from .checks import CAUTION, CodeCheck, check_beam
 from .detailing import (DEFAULT_AGGREGATE, Exposure, Support, maximum_bar_spacing, minimum_clear_spacing,
-                        minimum_cover, minimum_depth, minimum_layer_gap, minimum_steel_satisfied,
+                        minimum_cover, minimum_depth, minimum_layer_gap, minimum_steel_area,
+                        minimum_steel_satisfied,
                         service_stress, skin_depth_limit, skin_reinforcement_required)
 from .errors import InputError
-from .flexure import analyse
 from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
 from .materials import yield_strain
-from .required_steel import required_steel
+from .required_steel import design_moment, required_steel
 from .section import BeamSection, SteelLayer
 from .strength_reduction import TENSION_CONTROL_MARGIN
 from .units import UnitSystem, unit_system
@@ -269,8 +269,7 @@ def largest_design_moment(beam: BeamSection) -> tuple[float, float]:
     As_tc = min(steel_for_strain(beam, eps_ty + TENSION_CONTROL_MARGIN), As_max)
 
     def moment(As: float) -> float:
-        state = analyse(beam.with_tension_area(As))
-        return state.phi * state.Mn_base
+        return design_moment(beam, As)
 
     low, high = As_tc, As_max
     ratio = (math.sqrt(5) - 1) / 2
@@ -305,6 +304,13 @@ def _best_for_bar(section: DesignSection, bar: Bar, Mu_base: float) -> BarOption
     (no arrangement of this bar is deeper) and rise until an arrangement
     works, the bars no longer fit, or εt drops below 0.004 (more steel only
     lowers it: dt is the same for every count of one bar size).
+
+    The work is bounded by what could pass. Once the nearest miss is settled
+    (the first count strong enough), counts that no rule lets pass are
+    skipped: fewer bars than crack control (24.3.2) or As,min (9.6.1.2, or
+    4/3 As,req by 9.6.1.3) need, more than fit (25.2.1, 25.2.2), and every
+    count when the cover (Table 20.5.1.3.1) fails for this bar. Layouts that
+    a count-free rule already fails are not analysed.
     """
     s_min = minimum_clear_spacing(section.system, bar.db, section.aggregate)
     s_max = maximum_bar_spacing(section.system, section.fs, section.cc)
@@ -313,27 +319,130 @@ def _best_for_bar(section: DesignSection, bar: Bar, Mu_base: float) -> BarOption
                         bar=bar, per_layer=(2,), layer_gap=section.layer_gap)
     As_lower = required_steel(section.arranged_beam(one_layer), Mu_base)
     start = 2 if As_lower is None else max(2, math.ceil(As_lower / bar.area - 1e-9))
-    first_strong = last_within = last = None
-    for count in range(start, start + _MAX_BARS):
+
+    def head_of(count: int) -> tuple[BarOption, tuple[tuple[int, ...], ...]]:
+        """The first layout's option (the one the nearest miss is judged by) and all layouts."""
         layouts = distributions(count, fits, section.max_layers)
-        placed = bool(layouts)
-        if not placed:
-            layouts = (nearest_distribution(count, section.max_layers),)
-        head = None
-        for layout in layouts:
-            option = _evaluate(section, bar, layout, s_min, s_max)
-            if option.ok:
-                return option
-            head = head or option
+        shown = layouts or (nearest_distribution(count, section.max_layers),)
+        return _evaluate(section, bar, shown[0], s_min, s_max), layouts
+
+    if As_lower is None:
+        return _nearest_miss_out_of_reach(section, start, lambda count: head_of(count)[0])
+    cover_ok = _cover_ok(section, bar)
+    most = fits if section.max_layers < 2 else 2 * fits  # the most bars that can be placed
+    # As,min (9.6.1.2) is least at the shallowest d of any arrangement: the upper layer's.
+    d_low = one_layer.dt - (bar.db + section.layer_gap if section.max_layers > 1 else 0.0)
+    As_min_low = minimum_steel_area(section.system, section.fc, section.fy, section.b,
+                                    max(d_low, 0.0))
+    fewest = _fewest_that_could_pass(section, bar, fits, s_max, As_lower, As_min_low)
+    first_strong = last_within = last = None
+    count = start
+    while count < start + _MAX_BARS:
+        head, layouts = head_of(count)
+        if head.ok:
+            return head
+        if cover_ok and _shallower_could_pass(head, As_min_low):
+            for layout in layouts[1:]:
+                if _layout_could_pass(section, bar, layout, s_max):
+                    option = _evaluate(section, bar, layout, s_min, s_max)
+                    if option.ok:
+                        return option
         last = head
         within = head.eps_t >= EPS_T_BEAM_MINIMUM
         if within:
             last_within = head
         if first_strong is None and head.phiMn >= section.Mu:
             first_strong = head
-        if not within or (not placed and first_strong is not None):
+        if not within or (not layouts and first_strong is not None):
             break
+        if first_strong is None:
+            count += 1
+            continue
+        # The nearest miss is settled: only an arrangement that passes can change the answer.
+        if not cover_ok or fewest is None or max(count + 1, fewest) > most:
+            break
+        count = max(count + 1, fewest)
     return first_strong or last_within or last
+
+
+def _nearest_miss_out_of_reach(section: DesignSection, start: int, head_of) -> BarOption:
+    """The nearest miss of one bar size when Mu is out of reach within εt ≥ 0.004.
+
+    No count then carries Mu with εt ≥ 0.004 (none does at the deepest, one-layer
+    depth), so none passes: the answer is the most bars with εt ≥ 0.004, or the
+    first count past that if it carries Mu, as a count-by-count search finds it.
+    εt falls as bars are added, so the last count within 9.3.3.1 is found by
+    bisection.
+    """
+    low, high = start, start + _MAX_BARS - 1
+    first = head_of(low)
+    if first.eps_t < EPS_T_BEAM_MINIMUM:
+        return first
+    top = head_of(high)
+    if top.eps_t >= EPS_T_BEAM_MINIMUM:
+        return top
+    within, beyond = first, top
+    while high - low > 1:  # head_of(low) within 9.3.3.1, head_of(high) not
+        middle = (low + high) // 2
+        option = head_of(middle)
+        if option.eps_t >= EPS_T_BEAM_MINIMUM:
+            low, within = middle, option
+        else:
+            high, beyond = middle, option
+    return beyond if beyond.phiMn >= section.Mu else within
+
+
+def _shallower_could_pass(head: BarOption, As_min_low: float) -> bool:
+    """Whether a layout with fewer bars at the bottom could pass where `head` fails.
+
+    The same bars placed higher carry less (9.5.1.1) and need more steel for Mu
+    (so 9.6.1.3 waives no more); only As,min falls with d (9.6.1.2), and εt
+    (9.3.3.1), crack control and the layer gap are judged layout by layout.
+    """
+    failed = {rule.clause for rule in head.failed_rules}
+    if failed & {"9.5.1.1", "20.5.1.3.1", "25.2.1"}:
+        return False
+    return "9.6.1.2" not in failed or head.As >= As_min_low
+
+
+def _fewest_that_could_pass(section: DesignSection, bar: Bar, fits: int, s_max: float,
+                            As_lower: float, As_min_low: float) -> int | None:
+    """A count below which no arrangement of `bar` meets every rule; None if none can.
+
+    Crack control (24.3.2) needs bottom-layer spacing (inside − db)/(n − 1) ≤ s;
+    As,min (9.6.1.2) is least at the shallowest d any arrangement has (the upper
+    layer's depth), and 9.6.1.3's 4/3 As,req is at least 4/3 of As,req at the
+    deepest, one-layer depth. Both are lower bounds, so no passing count is lost.
+    """
+    if s_max <= 0:
+        return None
+    inside = section.b - 2 * side_cover(section.cover, section.stirrup)
+    crack = max(2, math.ceil(1 + (inside - bar.db) / (s_max * (1 + 1e-9))) - 1)
+    if crack > fits:
+        return None
+    steel = math.floor(min(As_min_low, 4.0 / 3.0 * As_lower) / bar.area)
+    return max(crack, steel, 2)
+
+
+def _cover_ok(section: DesignSection, bar: Bar) -> bool:
+    """Table 20.5.1.3.1 for the stirrup and for `bar`: the same for every count."""
+    u = section.system
+    return (fits_within(section.cover, minimum_cover(u, section.exposure, section.stirrup))
+            and fits_within(section.cc, minimum_cover(u, section.exposure, bar)))
+
+
+def _crack_spacing_ok(spacing: float, s_max: float) -> bool:
+    """Table 24.3.2: spacing of the bars nearest the tension face at most s."""
+    return spacing <= s_max * (1 + 1e-9)
+
+
+def _layout_could_pass(section: DesignSection, bar: Bar, layout: tuple[int, ...],
+                       s_max: float) -> bool:
+    """Whether `layout` meets the rules that need no analysis: 25.2.2 and 24.3.2."""
+    if len(layout) > 1 and not fits_within(section.layer_gap, minimum_layer_gap(section.system)):
+        return False
+    spacing = clear_spacing(section.b, section.cover, section.stirrup, bar, layout[0]) + bar.db
+    return _crack_spacing_ok(spacing, s_max)
 
 
 def _evaluate(section: DesignSection, bar: Bar, layout: tuple[int, ...], s_min: float,
@@ -368,6 +477,8 @@ def _evaluate(section: DesignSection, bar: Bar, layout: tuple[int, ...], s_min: 
 
 
 def _with_required_steel(section: DesignSection, option: BarOption, Mu_base: float) -> BarOption:
+    if option.As_req is not None:  # found already, for 9.6.1.3, at this very arrangement
+        return option
     a = option.arrangement
     return replace(option, As_req=required_steel(section.arranged_beam(a), Mu_base))
 
@@ -395,7 +506,7 @@ def _arrangement_checks(section: DesignSection, arrangement: Arrangement, s_min:
             f"directly above the bottom ones"))
     cover_stirrup = minimum_cover(u, section.exposure, section.stirrup)
     cover_bar = minimum_cover(u, section.exposure, bar)
-    passed = fits_within(section.cover, cover_stirrup) and fits_within(section.cc, cover_bar)
+    passed = _cover_ok(section, bar)
     checks.append(CodeCheck(
         "20.5.1.3.1", "specified concrete cover", passed,
         f"stirrup {section.stirrup.designation}: {section.cover:.3g} {L} "
@@ -404,7 +515,7 @@ def _arrangement_checks(section: DesignSection, arrangement: Arrangement, s_min:
         f"{'≥' if fits_within(section.cc, cover_bar) else '<'} {cover_bar:g} {L} "
         f"({section.exposure.value})"))
     s = arrangement.centre_spacing
-    passed = s <= s_max * (1 + 1e-9)
+    passed = _crack_spacing_ok(s, s_max)
     checks.append(CodeCheck(
         "24.3.2", "bar spacing for crack control", passed,
         f"spacing of the bars nearest the tension face {s:.3g} {L} {'≤' if passed else '>'} "
@@ -481,16 +592,34 @@ def _concrete_needed(section: DesignSection, d: float) -> float | None:
     Mu_base = section.Mu * section.system.moment_to_base
     top = hard_maximum(section.system, "stress_fc")
 
-    def reaches(fc: float) -> bool:
-        beam = replace(section.beam(((1.0, d),)), fc=fc)
-        return largest_design_moment(beam)[0] >= Mu_base
+    # φMn,max rises with f'c: the Illinois method on its shortfall, kept bracketed, to a
+    # thousandth of a psi or MPa (the remedy quotes f'c to the unit).
+    def shortfall(fc: float) -> float:
+        return largest_design_moment(replace(section.beam(((1.0, d),)), fc=fc))[0] - Mu_base
 
-    if not reaches(top):
+    f_high = shortfall(top)
+    if f_high < 0:
         return None
     low, high = section.fc, top
-    for _ in range(40):
-        middle = 0.5 * (low + high)
-        low, high = (low, middle) if reaches(middle) else (middle, high)
+    f_low = shortfall(low)
+    side = 0
+    for _ in range(100):
+        if high - low <= 1e-3 or f_high == 0:
+            break
+        guess = (low * f_high - high * f_low) / (f_high - f_low)
+        if not low < guess < high:
+            guess = 0.5 * (low + high)
+        f_guess = shortfall(guess)
+        if f_guess >= 0:
+            high, f_high = guess, f_guess
+            if side == 1:
+                f_low *= 0.5  # the low end has gone stale: halve its weight
+            side = 1
+        else:
+            low, f_low = guess, f_guess
+            if side == -1:
+                f_high *= 0.5
+            side = -1
     return high
 
 

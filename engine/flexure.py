@@ -39,8 +39,9 @@ class FlexuralState:
     a: float
     c: float
     eps_s: float  # strain at the tension steel centroid d
+    fs: float  # steel stress at d, from εs (20.2.2.1): the layer's own with one layer
     eps_t: float  # net tensile strain at dt
-    fs: float  # stress in the deepest tension layer
+    fs_t: float  # steel stress at dt, from εt (20.2.2.1): the extreme tension layer's
     steel_yields: bool  # every tension layer has yielded
     Mn_base: float  # nominal moment, base units (lb·in or N·mm)
     phi: float
@@ -96,16 +97,17 @@ def analyse(section: BeamSection) -> FlexuralState:
         stress = steel_stress(strain, section.fy, section.es)
         layers.append(LayerState(layer, strain, stress, abs(stress) >= section.fy))
     tension = [state for state in layers if state.layer.role is Role.TENSION]
-    deepest = max(tension, key=lambda state: state.layer.depth)
     eps_t = EPS_CU * (section.dt - c) / c  # linear strain profile, 22.2.1.2
+    eps_s = EPS_CU * (section.d - c) / c
     return FlexuralState(
         beta1=b1,
         eps_ty=eps_ty,
         a=b1 * c,
         c=c,
-        eps_s=EPS_CU * (section.d - c) / c,
+        eps_s=eps_s,
+        fs=steel_stress(eps_s, section.fy, section.es),
         eps_t=eps_t,
-        fs=deepest.stress,
+        fs_t=steel_stress(eps_t, section.fy, section.es),
         steel_yields=all(state.yields and state.stress > 0 for state in tension),
         Mn_base=nominal_moment(section, c, b1),
         phi=phi_flexure(eps_t, eps_ty, section.spiral),

@@ -49,6 +49,7 @@ class ReinforcementLimits:
     As_tc: float  # εt = εty + 0.003: tension-controlled limit, Table 21.2.2
     As_max: float  # εt = 0.004: beam limit, 9.3.3.1
     As_b: float  # εt = εty: balanced strain condition, 21.2.2
+    # Each is infinite (null in JSON) where no positive area gives that strain.
     bd: float
 
     @property
@@ -100,18 +101,49 @@ def forces_at_strain(beam: BeamSection, eps_t: float) -> ForcesAtStrain:
     return ForcesAtStrain(c=c, fixed=fixed, tension=tension)
 
 
+def areas_reaching_strain(beam: BeamSection, eps_t: float) -> tuple[float, float] | None:
+    """The tension steel areas (low, high) that keep the strain at dt at least `eps_t`.
+
+    The tension layers are scaled together by s. At the c that `eps_t` fixes,
+    N = fixed + s·tension, and εt ≥ `eps_t` exactly where N ≥ 0 there (N rises
+    with c, so the root then lies at or above that c's strain). Usually the
+    tension layers pull (tension < 0) and the areas are (0, high]; where they
+    stand mostly above that c and push, more of them raises εt and the areas
+    are [low, ∞). None when no positive area does: the rest of the section
+    alone holds εt below `eps_t`. `high` is ∞ when every area does.
+    """
+    forces = forces_at_strain(beam, eps_t)
+    if forces.tension == 0:
+        return (0.0, math.inf) if forces.fixed >= 0 else None
+    scale = -forces.fixed / forces.tension
+    if forces.tension < 0:
+        return (0.0, scale * beam.As) if scale > 0 else None
+    return (max(0.0, scale) * beam.As, math.inf)
+
+
 def steel_for_strain(beam: BeamSection, eps_t: float) -> float:
     """The tension steel area that puts the strain at dt at exactly `eps_t`.
 
     With c fixed by the strain, every force but the tension layers' is fixed,
     and theirs is proportional to a common scale factor, so equilibrium gives
-    the factor directly. Infinite when the tension layers would not be in
-    tension; zero when the rest is already in tension.
+    the factor directly. Infinite when no positive area gives that strain
+    (`unreachable_reason` says why), so a limit is never a zero area.
     """
-    forces = forces_at_strain(beam, eps_t)
-    if forces.tension >= 0:
+    areas = areas_reaching_strain(beam, eps_t)
+    if areas is None:
         return math.inf
-    return max(0.0, -forces.fixed / forces.tension) * beam.As
+    low, high = areas
+    boundary = high if math.isfinite(high) else low
+    return boundary if 0 < boundary < math.inf else math.inf
+
+
+def unreachable_reason(beam: BeamSection, eps_t: float, what: str) -> str:
+    """Why no tension steel area puts the strain at dt at `eps_t` (`what` names it)."""
+    if areas_reaching_strain(beam, eps_t) is None:
+        return (f"the steel given as compression steel lies below the neutral axis and pulls, "
+                f"so εt stays below {what} whatever the tension steel area")
+    return (f"the layers given as tension steel, taken together, are in compression there "
+            f"(they lie too far above dt), so εt stays above {what} whatever their area")
 
 
 def reinforcement_limits(beam: BeamSection) -> ReinforcementLimits:

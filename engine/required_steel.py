@@ -5,7 +5,7 @@ from __future__ import annotations
 import math
 
 from .flexure import capacity_point
-from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
+from .limits import EPS_T_BEAM_MINIMUM, areas_reaching_strain
 from .materials import BLOCK_STRESS_FACTOR, EPS_CU, beta1, yield_strain
 from .section import BeamSection
 from .units import quoted_moment
@@ -47,7 +47,9 @@ def required_steel(beam: BeamSection, Mu_base: float) -> float | None:
     Up to the tension-controlled limit φ = 0.90 and Mn rises with As, so φMn
     does too and the root is bracketed from 0. Across the transition zone φ
     drops (ACI 318-19 Table 21.2.2) and φMn may fall, so there the first
-    crossing is bracketed on a grid up to the 9.3.3.1 limit first.
+    crossing is bracketed on a grid up to the 9.3.3.1 limit first. The search
+    never goes past the section's own area: where the 9.3.3.1 limit cannot be
+    reached (εt stays above 0.004 whatever the area), it stops there.
     """
     # A demand this far below the section's scale needs no steel to twelve
     # digits; going on would only push areas into floating-point underflow.
@@ -56,24 +58,51 @@ def required_steel(beam: BeamSection, Mu_base: float) -> float | None:
     closed_form = _tension_controlled_steel(beam, Mu_base)
     if closed_form is not None:
         return closed_form
-    As_limit = steel_for_strain(beam, EPS_T_BEAM_MINIMUM)
-    eps_ty = yield_strain(beam.fy, beam.es)
-    As_tc = min(steel_for_strain(beam, eps_ty + TENSION_CONTROL_MARGIN), As_limit)
+    within = areas_reaching_strain(beam, EPS_T_BEAM_MINIMUM)
+    if within is None:  # no positive area keeps εt ≥ 0.004
+        return None
+    low, high = within[0], min(within[1], largest_steel_area(beam))
+    if not low < high:
+        return None
     shortfall = lambda As: design_moment(beam, As) - Mu_base  # noqa: E731
-    # Other layers (say, "compression" steel below the neutral axis) may carry
-    # Mu with next to no tension steel: then none is required.
-    if As_tc > 0 and shortfall(_NEGLIGIBLE * As_tc) >= 0:
-        return 0.0
-    if As_tc > 0 and shortfall(As_tc) >= 0:
-        return _least_root(shortfall, 0.0, -Mu_base, As_tc, shortfall(As_tc), Mu_base)
-    below, f_below = As_tc, shortfall(As_tc) if As_tc > 0 else -Mu_base
+    eps_ty = yield_strain(beam.fy, beam.es)
+    controlled = areas_reaching_strain(beam, eps_ty + TENSION_CONTROL_MARGIN)
+    if low == 0 and controlled is not None and controlled[0] == 0:
+        # Tension-controlled from no steel up to As_tc: φMn rises with As there.
+        As_tc = min(controlled[1], high)
+        # Other layers (say, "compression" steel below the neutral axis) may carry
+        # Mu with next to no tension steel: then none is required.
+        if shortfall(_NEGLIGIBLE * As_tc) >= 0:
+            return 0.0
+        f_tc = shortfall(As_tc)
+        if f_tc >= 0:
+            return _least_root(shortfall, 0.0, -Mu_base, As_tc, f_tc, Mu_base)
+        below, f_below = As_tc, f_tc
+    elif low == 0:
+        if shortfall(_NEGLIGIBLE * high) >= 0:
+            return 0.0
+        below, f_below = 0.0, -Mu_base
+    else:  # only areas from `low` up keep εt ≥ 0.004
+        f_low = shortfall(low)
+        if f_low >= 0:
+            return low
+        below, f_below = low, f_low
+    start = below
     for step in range(1, _GRID + 1):
-        above = As_tc + (As_limit - As_tc) * step / _GRID
+        above = start + (high - start) * step / _GRID
         f_above = shortfall(above)
         if f_above >= 0:
             return _least_root(shortfall, below, f_below, above, f_above, Mu_base)
         below, f_below = above, f_above
     return None
+
+
+def largest_steel_area(beam: BeamSection) -> float:
+    """The most tension steel the section could hold: its web area bw·h (bw·dt without h).
+
+    `beam_section` refuses more, so no As the check accepts lies beyond it.
+    """
+    return beam.bw * (beam.h if beam.h is not None else beam.dt)
 
 
 def _least_root(f, low: float, f_low: float, high: float, f_high: float, scale: float) -> float:

@@ -89,7 +89,10 @@ class BeamSection:
     def with_tension_area(self, As: float) -> "BeamSection":
         """The same section with every tension layer scaled to a total of `As` (> 0)."""
         factor = As / self.As
-        layers = tuple(SteelLayer(layer.area * factor, layer.depth, layer.role)
+        # One layer takes As itself: As/A·A can differ from As by an ulp, and a
+        # check of As as given must see the very area searched for.
+        single = len(self.tension_layers) == 1
+        layers = tuple(SteelLayer(As if single else layer.area * factor, layer.depth, layer.role)
                        if layer.role is Role.TENSION else layer for layer in self.layers)
         return BeamSection(self.system, self.fc, self.fy, self.es, self.bw, layers, self.dt,
                            self.h, self.flange, self.spiral)
@@ -130,7 +133,8 @@ def beam_section(
         "es", es, stress, hard_maximum(system, "modulus"))
     bw = size("b", b)
     h_value = None if h is None else size("h", h)
-    steel = list(_tension_layers(d, As, layers, system, bw * max_length))
+    named = list(_tension_layers(d, As, layers, system, bw * max_length))
+    steel = [layer for _, layer in named]
     if asc is not None or dc is not None:
         _both_or_neither(("asc", asc, area, bw * max_length), ("dc", dc, length, max_length),
                          "compression steel")
@@ -141,6 +145,9 @@ def beam_section(
     if dt_value < deepest:
         raise InputError("dt", dt, f"at least {deepest:g} {length}, the depth of the deepest tension layer")
     if h_value is not None and dt_value > h_value:
+        if dt is not None and deepest <= h_value:  # the layers fit in h; dt alone lies below it
+            raise InputError("dt", dt, f"at most h = {h_value:g} {length}",
+                             why="the extreme tension steel must lie within the section")
         raise InputError("h", h, f"more than dt = {dt_value:g} {length}",
                          why="the steel must lie within the section")
     for layer in steel:
@@ -148,10 +155,16 @@ def beam_section(
             raise InputError("dc", dc, f"less than dt = {dt_value:g} {length}",
                              why="compression steel lies above the tension steel")
     gross_area = bw * (h_value if h_value is not None else dt_value)
-    total_tension = sum(layer.area for layer in steel if layer.role is Role.TENSION)
+    # A value is refused under its own field: one layer's area alone, else the total.
+    for field, layer in named:
+        if layer.area >= gross_area:
+            raise InputError(field, layer.area, f"less than the gross area {gross_area:g} {area}")
+    total_tension = sum(layer.area for _, layer in named)
     if total_tension >= gross_area:
-        field = "As" if As is not None else "layers"
-        raise InputError(field, total_tension, f"less than the gross area {gross_area:g} {area}")
+        fields = ", ".join(field for field, _ in named)
+        raise InputError("tension steel", total_tension,
+                         f"less than the gross area {gross_area:g} {area}",
+                         why=f"the total of {fields}")
     flange = _flange(bf, hf, bw, dt_value, system)
     return BeamSection(system=system, fc=fc_value, fy=fy_value, es=es_value, bw=bw,
                        layers=tuple(steel), dt=dt_value, h=h_value, flange=flange,
@@ -170,11 +183,12 @@ def _size_validator(system: UnitSystem):
 
 
 def _tension_layers(d, As, layers, system: UnitSystem, max_area: float):
+    """Each tension layer with the name of the field its area came from."""
     size, area_unit = _size_validator(system), system.area
     if d is not None or As is not None:
         _both_or_neither(("As", As, area_unit, max_area),
                          ("d", d, system.length, hard_maximum(system, "length")), "a tension layer")
-        yield SteelLayer(in_range("As", As, area_unit, max_area), size("d", d))
+        yield "As", SteelLayer(in_range("As", As, area_unit, max_area), size("d", d))
     # Numbered as a reader counts them: the As at d layer, when given, is layer 1.
     first = 1 if d is None else 2
     count = 0
@@ -183,8 +197,9 @@ def _tension_layers(d, As, layers, system: UnitSystem, max_area: float):
             layer_area, layer_depth = item
         except (TypeError, ValueError):
             raise InputError("layer", item, "an area and a depth, as AREA@DEPTH") from None
-        yield SteelLayer(in_range(f"layer {count} area", layer_area, area_unit, max_area),
-                         size(f"layer {count} depth", layer_depth))
+        yield f"layer {count} area", SteelLayer(
+            in_range(f"layer {count} area", layer_area, area_unit, max_area),
+            size(f"layer {count} depth", layer_depth))
     if d is None and count == 0:  # no --as/--d and no layer at all
         raise InputError("As", None, range_text(area_unit, max_area),
                          why="give As and d, or at least one layer")

@@ -179,3 +179,19 @@ def test_dt_above_the_deepest_layer_is_refused():
     # εt is read at the extreme tension steel (21.2.2), so dt cannot be shallower than it.
     with pytest.raises(engine.InputError, match=r"^dt\b.*21\.5"):
         engine.check(units="us", fc=4000, fy=60000, b=12, dt=20, layers=[(2.0, 21.5), (1.2, 19.0)])
+
+
+def test_strain_and_stress_are_reported_in_pairs_at_named_depths():
+    # eps_t/fs_t at dt and eps_s/fs at the centroid d, each stress from its own strain by
+    # 20.2.2.1 (Es·ε capped at fy); with dt at its default the dt pair is the deepest layer's.
+    # Layers 0.6 in² at 21.5 in and 2.4 in² at 14 in: d = (0.6·21.5 + 2.4·14)/3 = 15.5 in.
+    r = engine.check(units="us", fc=4000, fy=60000, b=12, d=21.5, As=0.6, layers=[(2.4, 14.0)])
+    out = r.to_dict()
+    c = out["c"]
+    assert out["d"] == pytest.approx(15.5, rel=1e-12)
+    assert out["eps_t"] == pytest.approx(EPS_CU * (21.5 - c) / c, rel=1e-12)
+    assert out["eps_s"] == pytest.approx(EPS_CU * (15.5 - c) / c, rel=1e-12)
+    assert out["fs_t"] == pytest.approx(min(60000, ES_US * out["eps_t"]), rel=1e-12)
+    assert out["fs"] == pytest.approx(min(60000, ES_US * out["eps_s"]), rel=1e-12)
+    deepest = max(out["layers"], key=lambda layer: layer["depth"])
+    assert (deepest["strain"], deepest["stress"]) == pytest.approx((out["eps_t"], out["fs_t"]))

@@ -17,12 +17,12 @@ def parse_float(field: str, text: str | None) -> float | None:
         raise InputError(field, text, "a number") from None
 
 
-def parse_layer(text: str) -> tuple[float, float]:
-    """`AREA@DEPTH` as (area, depth)."""
+def parse_layer(text: str, number: int) -> tuple[float, float]:
+    """`AREA@DEPTH` as (area, depth); `number` counts layers as `engine.check` does."""
     area, separator, depth = text.partition("@")
     if not separator:
-        raise InputError("layer", text, "AREA@DEPTH, e.g. 1.58@21.5")
-    return parse_float("layer area", area), parse_float("layer depth", depth)
+        raise InputError(f"layer {number}", text, "AREA@DEPTH, e.g. 1.58@21.5")
+    return parse_float(f"layer {number} area", area), parse_float(f"layer {number} depth", depth)
 
 
 def add_required_flags(parser: argparse.ArgumentParser, *more: tuple[str, str]) -> None:
@@ -61,6 +61,8 @@ def section_inputs(args: argparse.Namespace) -> dict:
            (("fc", "fc"), ("fy", "fy"), ("b", "b"), ("d", "d"), ("As", "as"),
             ("dt", "dt"), ("es", "es"), ("h", "h"), ("bf", "bf"), ("hf", "hf"),
             ("asc", "asc"), ("dc", "dc"))},
-        "layers": [parse_layer(text) for text in args.layer],
+        # Numbered as the engine numbers them: the As at d layer, when given, is layer 1.
+        "layers": [parse_layer(text, number) for number, text in
+                   enumerate(args.layer, start=1 if args.d is None else 2)],
         "spiral": args.spiral,
     }

@@ -65,7 +65,9 @@ def summary(result: FlexuralCheck) -> str:
         "",
         f"  β1 = {s.beta1:.3f}   εty = {s.eps_ty:.5f}",
         f"  c = {s.c:.4g} {u.length}   a = {s.a:.4g} {u.length}   εt = {s.eps_t:.5f}"
-        f"   fs = {s.fs:.5g} {u.stress} ({'yields' if s.fs >= beam.fy else 'below yield'})",
+        f"   fs = {s.fs_t:.5g} {u.stress} at dt ({'yields' if s.fs_t >= beam.fy else 'below yield'})",
+        *([] if beam.d == beam.dt else
+          [f"  at d = {beam.d:.4g} {u.length}: εs = {s.eps_s:.5f}   fs = {s.fs:.5g} {u.stress}"]),
         f"  Mn = {result.Mn:.4g} {u.moment}   φ = {s.phi:.3f}   φMn = {result.phiMn:.4g} {u.moment}",
         f"  class: {s.section_class.value}",
         "",
