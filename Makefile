@@ -4,7 +4,7 @@
 #   make run          build, then serve build/ at http://localhost:8000 (first look offline; full page needs the Pyodide CDN)
 #   make serve        the app from a local Panel server at http://localhost:5006/ (offline)
 #   make bench        engine benchmarks in CPython and in Pyodide under Node
-#   make fuzz         the fuzz tests (tests/fuzz) at full size: 100,000 generated sections
+#   make fuzz         the fuzz tests (tests/fuzz) at full size: 100,000 sections, 1,500 CLI calls, 3,000 schedules
 #   make test-online  build/ in Chromium with Pyodide from its CDN (skips when unreachable)
 #   make clean        remove generated files (build/, node_modules, caches); distclean also .venv
 
@@ -64,10 +64,16 @@ bench: venv pyodide
 		echo "make bench: browser latency benchmarks (-m bench)"; \
 		$(PY) -m pytest -m bench -q -rs -s tests; fi
 
-# The fuzz tests run in `make test` at a size that fits CI; here at full size.
+# The fuzz tests run in `make test` at a size that fits CI; here at full size
+# (generated sections, CLI calls, schedules and their rows; RHOSCOPE_FUZZ_SEED picks the draw).
 FUZZ_SECTIONS ?= 100000
+FUZZ_CLI ?= 1500
+FUZZ_SCHEDULES ?= 3000
+FUZZ_SCHEDULE_ROWS ?= 40
 fuzz: venv
-	RHOSCOPE_FUZZ_SECTIONS=$(FUZZ_SECTIONS) $(PY) -m pytest tests/fuzz -q -s -p no:cacheprovider
+	RHOSCOPE_FUZZ_SECTIONS=$(FUZZ_SECTIONS) RHOSCOPE_FUZZ_CLI=$(FUZZ_CLI) \
+	RHOSCOPE_FUZZ_SCHEDULES=$(FUZZ_SCHEDULES) RHOSCOPE_FUZZ_SCHEDULE_ROWS=$(FUZZ_SCHEDULE_ROWS) \
+		$(PY) -m pytest tests/fuzz -q -s -p no:cacheprovider
 
 test-online: build
 	@echo "make test-online: Chromium against build/, with Pyodide from its CDN (skips with the reason when the CDN is unreachable)"
