@@ -353,7 +353,9 @@ def _best_for_bar(section: DesignSection, bar: Bar, Mu_base: float) -> BarOption
             last_within = head
         if first_strong is None and head.phiMn >= section.Mu:
             first_strong = head
-        if not within or (not layouts and first_strong is not None):
+        # A count with no layout can be followed by one that splits into two layers
+        # (3 bars that do not fit one layer, then 2 + 2): stop only past the most that fit.
+        if not within or (not layouts and first_strong is not None and count >= most):
             break
         if first_strong is None:
             count += 1

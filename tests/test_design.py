@@ -372,3 +372,19 @@ def test_a_suggested_size_is_never_the_size_given():
     assert not result.feasible
     deeper, wider = result.remedies[0], result.remedies[1]
     assert "h = 24 in" not in deeper and "b = 14 in" not in wider
+
+
+def test_a_count_that_fits_no_layer_does_not_end_the_search():
+    # Found by test_nothing_lighter_that_works_is_missing. 8 × 12 in, 2 in cover to #4 stirrups,
+    # 1.5 in aggregate: the width inside the stirrups is 8 − 2·(2 + 0.5) = 3 in and the least clear
+    # spacing max(1 in, db, 4/3·1.5 in) = 2 in (25.2.1). 3 #4 in one layer leave (3 − 1.5)/2 =
+    # 0.75 in and cannot split (2 per layer at least, 25.2.2), but 4 #4 as 2 + 2 leave 3 − 1 = 2 in.
+    # By hand (Whitney block, 22.2.2): d = (9.25 + 7.75)/2 = 8.5 in, a = 0.8·40/(0.85·3·8) = 1.569 in,
+    # φMn = 0.9·0.8·40·(8.5 − 0.784)/12 = 18.52 kip·ft ≥ 11; εt = 0.003·(9.25 − 1.846)/1.846 = 0.0120.
+    result = engine.design_section(units="us", fc=3000, fy=40000, b=8, h=12, Mu=11, cover=2,
+                                   stirrup="#4", agg=1.5)
+    best = result.best
+    assert best is not None and best.ok
+    assert (best.bar.designation, best.per_layer) == ("#4", (2, 2))
+    assert best.phiMn == pytest.approx(18.52, abs=0.01)
+    assert best.eps_t == pytest.approx(0.0120, abs=1e-4)
