@@ -17,6 +17,7 @@ from .limits import (EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limi
                      unreachable_reason)
 from .required_steel import required_steel_for
 from .scope import scope_warnings
+from .section_warnings import misplaced_tension_steel, section_warnings
 from .section import BeamSection, Role, beam_section
 from .strength_reduction import STRAIN_ROUNDING, TENSION_CONTROL_MARGIN
 from .units import quoted_moment
@@ -130,7 +131,7 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
     As_req = None
     if Mu is not None and beam.As < limits.As_min.value:  # only 9.6.1.3 needs it
         As_req = _required_steel(beam, Mu)
-    warnings = scope_warnings(beam) + _dt_warnings(beam)
+    warnings = scope_warnings(beam) + section_warnings(beam) + _dt_warnings(beam)
     if not state.steel_yields:
         u = beam.system
         elastic = [f"{ls.stress:.5g} {u.stress} at {ls.layer.depth:g} {u.length}"
@@ -145,6 +146,7 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
                 f"The compression steel at d' = {ls.layer.depth:g} {beam.system.length} lies below "
                 f"the neutral axis (c = {state.c:.4g} {beam.system.length}) and is in tension "
                 f"(fs = {ls.stress:.5g} {beam.system.stress}); it is counted so (22.2.1.2, 20.2.2.1).",)
+    warnings += misplaced_tension_steel(beam, state.layers, state.c)
     warnings += _unreachable_limit_warnings(beam, limits, state.eps_ty)
     checks = (_minimum_steel_check(beam, limits, As_req, Mu),
               _strain_limit_check(state))
