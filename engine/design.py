@@ -556,8 +556,10 @@ def _verdict(section: DesignSection, feasible: bool, phiMn_max: float, d_deepest
     u = section.system
     if feasible:
         text = (f"A singly reinforced {section.b:g} × {section.h:g} {u.length} section carries "
-                f"Mu = {section.Mu:g} {u.moment} with εt ≥ 0.004: As,req = {As_req:.4g} {u.area} "
-                f"at d = {As_req_d:.4g} {u.length}.")
+                f"Mu = {section.Mu:g} {u.moment} with εt ≥ 0.004: " + (
+                    f"As,req = {As_req:.4g} {u.area} at d = {As_req_d:.4g} {u.length}."
+                    if As_req is not None else
+                    "no As,req was found within the section's own area (b·h)."))
         if best is None:
             text += " No bar arrangement tried meets every rule; see each option's failed rules."
         else:

@@ -388,3 +388,12 @@ def test_a_count_that_fits_no_layer_does_not_end_the_search():
     assert (best.bar.designation, best.per_layer) == ("#4", (2, 2))
     assert best.phiMn == pytest.approx(18.52, abs=0.01)
     assert best.eps_t == pytest.approx(0.0120, abs=1e-4)
+
+
+def test_a_feasible_demand_without_an_as_req_in_reach_is_said_not_raised():
+    # Found by the CLI fuzz (design --es=４０００, full-width digits read as 4000). With Es = 4000 psi
+    # steel strains are 7,250 times those of 20.2.2.2's 29,000,000 psi: the largest φMn within
+    # εt ≥ 0.004 still passes Mu, but no area within b·h gives it in the As,req search.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=14, h=24, Mu=190, es=4000)
+    assert result.feasible and result.As_req is None
+    assert "no As,req was found within the section's own area" in result.verdict

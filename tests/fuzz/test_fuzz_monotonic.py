@@ -12,7 +12,7 @@ from __future__ import annotations
 import random
 
 import engine
-from sections import cli_command, fuzz_count, sections
+from fuzz.sections import cli_command, fuzz_count, sections
 
 
 def test_a_smaller_demand_never_needs_more_steel_nor_fails_the_minimum():

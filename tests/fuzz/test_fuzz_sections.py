@@ -19,7 +19,7 @@ import time
 
 import engine
 from engine.commands.check import summary
-from sections import cli_command, fuzz_count, sections
+from fuzz.sections import cli_command, fuzz_count, sections
 
 RELATIVE_RESIDUAL = 1e-9  # of the largest force in the section
 CURVE_EVERY, CURVE_POINTS = 10, 16  # the capacity curve too, for one section in ten
