@@ -193,6 +193,14 @@ def details_html(result: engine.FlexuralCheck) -> str:
               'compression), from the engine\'s strain compatibility (22.2.1.2).</div>')
     limit_rows = []
     for key, as_key, symbol, what, clause in LIMITS:
+        if r[key] is None or r[as_key] is None:
+            # The engine's null: no steel area of this section reaches the limit.
+            limit_rows.append(
+                f'<tr><td><b>{symbol}</b><br><span class="rs-note">{escape(what)}; '
+                f'{escape(clause)}</span></td><td class="num">{_q(key, "—")}</td>'
+                f'<td class="num">{_q(as_key, "—")}</td><td class="rs-note">'
+                f'{_q("margin_" + key, "not reached by any steel area")}</td></tr>')
+            continue
         d_rho, d_as = r["rho"] - r[key], r["As"] - r[as_key]
         side = "above" if d_rho >= 0 else "below"
         limit_rows.append(
