@@ -139,12 +139,14 @@ class LinkReading:
     repeatable `layer`, gathered as `layers`: a list of (area, depth)) as
     check keywords and page keys; `problems` one `InputError` per value that
     did not (its `value` is the raw text); `repeated` maps a key given more
-    than once to its count (the first was used).
+    than once to its count (the first was used); `unread` counts the fields
+    past the first `MAX_FIELDS`, which are not read at all.
     """
 
     values: dict = field(default_factory=dict)
     problems: tuple[InputError, ...] = ()
     repeated: dict = field(default_factory=dict)
+    unread: int = 0
 
 
 def read_share_query(query: str) -> LinkReading:
@@ -159,10 +161,9 @@ def read_share_query(query: str) -> LinkReading:
     if "?" in query:
         query = query.split("?", 1)[1]
     query = query.split("#", 1)[0]
-    try:
-        pairs = parse_qsl(query, keep_blank_values=True, max_num_fields=MAX_FIELDS)
-    except ValueError:
-        pairs = parse_qsl(query, keep_blank_values=True)[:MAX_FIELDS]
+    fields = [part for part in query.split("&") if part]
+    unread = max(0, len(fields) - MAX_FIELDS)
+    pairs = parse_qsl("&".join(fields[:MAX_FIELDS]), keep_blank_values=True)
     values: dict = {}
     problems: list[InputError] = []
     counts: dict[str, int] = {}
@@ -187,7 +188,8 @@ def read_share_query(query: str) -> LinkReading:
     if layers:
         values["layers"] = layers
     repeated = {key: n for key, n in counts.items() if n > 1 and key != "layer"}
-    return LinkReading(values=values, problems=tuple(problems), repeated=repeated)
+    return LinkReading(values=values, problems=tuple(problems), repeated=repeated,
+                       unread=unread)
 
 
 def parse_share_query(query: str) -> dict:

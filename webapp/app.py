@@ -3,7 +3,10 @@
 import panel as pn
 
 from webapp.page import BeamCheckPage
+from webapp.session_cleanup import forget_unshown_callbacks
 
 pn.extension(notifications=False)
 
 BeamCheckPage().servable(title="Rhoscope: beam flexure check")
+if pn.state.curdoc is not None and pn.state.curdoc.session_context is not None:
+    pn.state.curdoc.on_session_destroyed(forget_unshown_callbacks)

@@ -79,6 +79,8 @@ def matching_option(result: engine.DesignResult | None, inputs):
 
 def options_html(result: engine.DesignResult, selected: int | None) -> str:
     """The options table, best first, with failed rules and their clauses."""
+    if not result.options:
+        return '<div class="rs-note" data-q="options">No bar arrangement to list.</div>'
     u = result.section.system
     L, A, M = escape(u.length), escape(u.area), escape(u.moment)
     rows = []
@@ -178,6 +180,11 @@ class SizeBarsView:
 
     # -- inputs ----------------------------------------------------------
 
+    def input_widgets(self) -> list:
+        """The bar-sizing inputs' widgets (the page re-sends their values, see widget_sync)."""
+        return [self.h_input, self.mu_input, self.cover_input, self.stirrup_input,
+                self.agg_input, self.layers_input, self.span_input, self.support_input]
+
     def _on_input(self, name: str, value) -> None:
         if self._syncing or self.page._applying:
             return
@@ -236,6 +243,8 @@ class SizeBarsView:
                                      else 0 if self.result.options else None)
             finally:
                 self._syncing = False
+        if self.result is None:
+            return  # the same inputs could not be sized last time: their message stays
         chosen = matching_option(self.result, inputs)
         index = self.choice.value if chosen is None else self.result.options.index(chosen)
         if chosen is not None and self.choice.value != index:

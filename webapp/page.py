@@ -10,6 +10,7 @@ that happens only after the first render).
 
 from __future__ import annotations
 
+import logging
 import math
 from dataclasses import replace
 from html import escape
@@ -25,9 +26,11 @@ from .plot import CapacityPlot, LimitSweepPlot
 from .schedule_view import ScheduleView
 from .sheet_view import SheetView
 from .sketch import SectionSketch, section_drawing
-from .state import (DEFAULTS, INPUT_FIELDS, NUMBER_FIELDS, SECTION_DEFAULTS, SLIDER_SPANS,
-                    Inputs, convert_inputs, default_inputs, parse_query, rounded_inputs,
-                    unit_label)
+from .location_guard import page_location
+from .state import (DEFAULTS, INPUT_FIELDS, MAX_EXTRA_LAYERS, NUMBER_FIELDS, QUANTITY,
+                    SECTION_DEFAULTS, SLIDER_SPANS, Inputs, convert_inputs, default_inputs,
+                    parse_query, rounded_inputs, slab_flange_width, unit_label)
+from .widget_sync import resend_values
 from .theme import ENTRY_CSS, SIDEBAR_CSS, TEXT_CSS
 
 SLIDER_FIELDS = ("fc", "fy", "b", "d", "As")
@@ -41,7 +44,11 @@ FLANGE_SOURCES = {"bf given": "direct", "from the slab": "slab"}
 SECTION_ENTRIES = (("h", "h, overall depth"), ("dt", "dt, extreme layer"),
                    ("bf", "bf, flange width"), ("hf", "hf, flange thickness"),
                    ("sw", "sw, clear web spacing"), ("ln", "ln, clear span"),
-                   ("asc", "A's, compression steel"), ("dc", "d', depth to A's"))
+                   ("asc", "A's, compression steel"), ("dc", "d', depth to A's"),
+                   ("es", "Es, steel modulus"))
+SPIRAL_OPTIONS = {"Ties or other": False, "Spirals": True}  # transverse steel, Table 21.2.2
+SETTLE_MS = 300  # quiet time after the last input before every widget is re-sent its value
+LOG = logging.getLogger(__name__)
 OTHER_FIELDS = tuple(f for f in INPUT_FIELDS if f not in ("units",) + NUMBER_FIELDS)
 _AS_PAST_BALANCED = 1.6  # the As slider runs to 1.6 As,b of the current section
 
@@ -102,6 +109,9 @@ class BeamCheckPage(pn.viewable.Viewer):
     span = param.Number(default=None, allow_None=True)
     support = param.String(default=None, allow_None=True)
     bars = param.String(default=None, allow_None=True, doc="chosen arrangement, e.g. #8:4,2")
+    es = param.Number(default=None, allow_None=True,
+                      doc="Es in psi or MPa; None: ACI 318-19 20.2.2.2's value")
+    spiral = param.Boolean(default=False, doc="spiral transverse reinforcement (φ, Table 21.2.2)")
     link_messages = param.List(default=[], doc="problems with the opened link's values")
 
     def __init__(self, **params) -> None:
@@ -112,24 +122,21 @@ class BeamCheckPage(pn.viewable.Viewer):
         self._switch_memo: tuple[Inputs, Inputs] | None = None
         self._applying = False
         self._cached_curve: tuple[tuple, engine.CapacityCurve] | None = None
+        self._redraw_pending = False
+        self._input_count = 0  # input events seen; the settle check compares it
+        # Widgets that show a quantity belong to one unit system for their whole
+        # life (`_widget_units`): a unit switch builds new ones, so an event the
+        # browser sent from an old one before it saw the switch is known to be in
+        # the old units and is converted, never read in the new ones.
+        self._widget_units = self.units
         self.unit_switch = pn.widgets.RadioButtonGroup(
             label="Units", options=UNIT_OPTIONS, value=self.units, color="primary",
             variant="outline", sizing_mode="stretch_width")
         self.unit_switch.param.watch(self._on_unit_switch, "value")
-        self.sliders: dict[str, pn.widgets.EditableFloatSlider] = {}
-        for name in SLIDER_FIELDS:
-            slider = pn.widgets.EditableFloatSlider(
-                label=self._label(name), value=getattr(self, name), start=0.0, end=1.0,
-                step=0.01, sizing_mode="stretch_width", format="0[.][0000]",
-                bar_color="#0d6b70", css_classes=[f"rs-input-{name}"])
-            slider.param.watch(self._on_widget_value, "value")
-            slider.param.watch(self._on_settled, "value_throttled")
-            self.sliders[name] = slider
-        self.mu_input = pn.widgets.FloatInput(
-            label=self._label("Mu"), value=self.Mu, start=0.0, step=1.0,
-            placeholder="none", sizing_mode="stretch_width", format="0[.][0000]",
-            css_classes=["rs-input-Mu"])
-        self.mu_input.param.watch(self._on_mu_widget, "value")
+        self.quantity_inputs = pn.Column(sizing_mode="stretch_width", margin=0)
+        self.flange_entries = pn.Column(sizing_mode="stretch_width", margin=0)
+        self.depth_entries = pn.Column(sizing_mode="stretch_width", margin=0)
+        self._build_quantity_inputs(self.units)
         self.copy_button = pn.widgets.Button(label="Copy link", color="primary",
                                              sizing_mode="stretch_width")
         self.copy_button.js_on_click(code=COPY_JS)
@@ -148,9 +155,12 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.sweep_plot = LimitSweepPlot()
         self.sketch = SectionSketch()
         self.sketch_note = pn.pane.HTML("", stylesheets=[TEXT_CSS], width=300, margin=(0, 8))
+        self.plot_note = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
+                                      margin=(0, 8))
         self.size_bars = SizeBarsView(self)
         # The results area: the check's own tab first; other views add theirs (add_view).
         self.check_tab = pn.Column(
+            self.plot_note,
             pn.Row(pn.pane.Bokeh(self.capacity_plot.figure, sizing_mode="stretch_width",
                                  min_width=380),
                    pn.Column(pn.pane.Bokeh(self.sketch.figure, width=300),
@@ -164,12 +174,12 @@ class BeamCheckPage(pn.viewable.Viewer):
             ("Size the bars", self.size_bars.__panel__()),
             dynamic=False, sizing_mode="stretch_width", margin=(0, 0))
         self._set_spans(self.units, self.inputs())
-        location = pn.state.location
+        location = page_location()
         if location is not None:
             location.param.watch(self._on_search, "search")
             if location.search:
                 self.apply_link(location.search)
-        self._refresh()
+        self._redraw_now()
         self.sheet_view = SheetView.attach(self, "Calculation sheet")
         self.schedule_view = ScheduleView.attach(self, "Beam schedule")
 
@@ -181,8 +191,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         values["layers"] = tuple(tuple(layer) for layer in self.layers)
         if self.shape in ("T", "L") and None not in (self.sw, self.ln, self.hf):
             try:
-                values["bf"] = engine.effective_flange_width(self.shape, self.b, self.hf,
-                                                             self.sw, self.ln)
+                values["bf"] = slab_flange_width(self.shape, self.b, self.hf, self.sw, self.ln)
             except engine.InputError:
                 pass  # the previous bf stays; `_redraw` shows the message
         return Inputs(units=self.units, fc=self.fc, fy=self.fy, b=self.b, d=self.d,
@@ -198,11 +207,11 @@ class BeamCheckPage(pn.viewable.Viewer):
         """Show and check `inputs` (values used exactly; slider spans widen to fit)."""
         self._applying = True
         try:
+            if inputs.units != self._widget_units:
+                self._build_quantity_inputs(inputs.units, inputs)
             self._set_spans(inputs.units, inputs)
             self.unit_switch.value = inputs.units
-            for name in SLIDER_FIELDS:
-                self.sliders[name].label = self._label(name, inputs.units)
-            self.mu_input.label = self._label("Mu", inputs.units)
+            # One update: the check runs once, on the whole new set of values.
             self.param.update(**{"units": inputs.units,
                                  **{name: getattr(inputs, name) for name in NUMBER_FIELDS},
                                  **{name: getattr(inputs, name) for name in OTHER_FIELDS}})
@@ -231,7 +240,7 @@ class BeamCheckPage(pn.viewable.Viewer):
 
     def share_url(self) -> str:
         """The current share link as the browser shows it (base address + query)."""
-        location = pn.state.location
+        location = page_location()
         href = getattr(location, "href", "") if location is not None else ""
         base = href.split("?", 1)[0].split("#", 1)[0] if href else ""
         return (base or "http://localhost:5006/") + self.share_query()
@@ -239,6 +248,44 @@ class BeamCheckPage(pn.viewable.Viewer):
     def add_view(self, title: str, viewable) -> None:
         """Append `viewable` as a tab named `title` after the check's own tab."""
         self.views.append((title, viewable))
+
+    def _build_quantity_inputs(self, units: str, inputs: Inputs | None = None) -> None:
+        """The sliders, Mu and the section's number entries for `units`, in place of any old ones."""
+        inputs = inputs or self.inputs()
+        self._widget_units = units
+        self.sliders: dict[str, pn.widgets.EditableFloatSlider] = {}
+        for name in SLIDER_FIELDS:
+            slider = pn.widgets.EditableFloatSlider(
+                label=self._label(name, units), value=getattr(inputs, name), start=0.0,
+                end=max(1.0, getattr(inputs, name)), step=0.01, sizing_mode="stretch_width",
+                format="0[.][0000]", bar_color="#0d6b70", css_classes=[f"rs-input-{name}"])
+            slider.param.watch(lambda event, name=name: self._on_slider(name, units, event),
+                               "value")
+            slider.param.watch(self._on_settled, "value_throttled")
+            self.sliders[name] = slider
+        self.mu_input = pn.widgets.FloatInput(
+            label=self._label("Mu", units), value=inputs.Mu, start=0.0, step=1.0,
+            placeholder="none", sizing_mode="stretch_width", format="0[.][0000]",
+            css_classes=["rs-input-Mu"])
+        self.mu_input.param.watch(lambda event: self._on_mu_widget(units, event), "value")
+        self.entries: dict[str, pn.widgets.FloatInput] = {}
+        for name, label in SECTION_ENTRIES:
+            entry = pn.widgets.FloatInput(label=label, value=getattr(inputs, name), start=0.0,
+                                          placeholder="none", format="0[.][0000]",
+                                          sizing_mode="stretch_width", align="end",
+                                          stylesheets=[ENTRY_CSS],
+                                          css_classes=[f"rs-input-{name}"])
+            entry.param.watch(lambda event, name=name: self._on_entry(name, units, event.new),
+                              "value")
+            self.entries[name] = entry
+        self._label_entries(units)
+        self.quantity_inputs.objects = [*self.sliders.values(), self.mu_input]
+        self.flange_entries.objects = [pn.Row(self.entries["bf"], self.entries["hf"]),
+                                       pn.Row(self.entries["sw"], self.entries["ln"])]
+        self.depth_entries.objects = [pn.Row(self.entries["h"], self.entries["dt"]),
+                                      pn.Row(self.entries["asc"], self.entries["dc"]),
+                                      pn.Row(self.entries["es"])]
+        self._shown_layers = None  # the layer rows are rebuilt in the new units too
 
     def _label(self, name: str, units: str | None = None) -> str:
         return f"{LABELS[name]} ({unit_label(units or self.units, name)})"
@@ -257,26 +304,39 @@ class BeamCheckPage(pn.viewable.Viewer):
         """The As slider's end: past As,b of the section, or `floor` if it has none."""
         try:
             As_b = engine.check(**inputs.section_kwargs()).limits.As_b
-        except engine.InputError:
+        except (engine.InputError, ArithmeticError):
             return floor
+        if As_b is None or not math.isfinite(As_b):
+            return floor  # no steel area reaches the balanced strain
         return min(_nice_ceiling(_AS_PAST_BALANCED * As_b, step * 10), inputs.b * inputs.d)
 
     # -- widget events ---------------------------------------------------
 
-    def _on_widget_value(self, event) -> None:
+    def _in_use_units(self, name: str, value, units: str):
+        """`value` of quantity `name` from a widget of `units`, in the units in use."""
+        if value is None or units == self.units:
+            return value
+        # A widget built before the last unit switch: the browser sent this
+        # before it showed the switch, so the number is in the old units.
+        system = engine.unit_system
+        return engine.convert(value, QUANTITY[name], system(units), system(self.units))
+
+    def _on_slider(self, name: str, units: str, event) -> None:
         if self._applying or event.new is None:
             return
+        self._input_count += 1
         # A dragged slider reports its steps with float noise (5.819999999999999);
         # 12 significant figures drop the noise and keep anything a person types.
-        value = float(f"{float(event.new):.12g}")
-        for name, slider in self.sliders.items():
-            if slider is event.obj:
-                setattr(self, name, value)
+        value = float(f"{self._in_use_units(name, float(event.new), units):.12g}")
+        setattr(self, name, value)
 
-    def _on_mu_widget(self, event) -> None:
-        self.Mu = None if event.new is None else float(event.new)
-        if not self._applying:
-            self._write_link()
+    def _on_mu_widget(self, units: str, event) -> None:
+        if self._applying:
+            return
+        self._input_count += 1
+        self.Mu = None if event.new is None else self._in_use_units("Mu", float(event.new),
+                                                                   units)
+        self._write_link()
 
     def _on_settled(self, event) -> None:
         if not self._applying:
@@ -285,6 +345,7 @@ class BeamCheckPage(pn.viewable.Viewer):
     def _on_unit_switch(self, event) -> None:
         if self._applying or event.new == self.units:
             return
+        self._input_count += 1
         current = self.inputs()
         if self._switch_memo is not None and self._switch_memo[0] == current:
             target = self._switch_memo[1]  # switching straight back restores the exact values
@@ -313,6 +374,48 @@ class BeamCheckPage(pn.viewable.Viewer):
 
     @param.depends("fc", "fy", "b", "d", "As", "Mu", "units", *OTHER_FIELDS, watch=True)
     def _refresh(self) -> None:
+        doc = pn.state.curdoc
+        if doc is None or doc.session_context is None:
+            self._redraw_now()  # no server session (tests, the Pyodide worker): at once
+            return
+        # On a server, changes the browser sent in a burst are queued; each sets
+        # its parameter, and one redraw (after them all) shows the last state
+        # instead of replaying every intermediate one.
+        if not self._redraw_pending:
+            self._redraw_pending = True
+            pn.state.execute(self._scheduled_redraw, schedule=True)
+
+    def _scheduled_redraw(self) -> None:
+        self._redraw_pending = False
+        self._redraw_now()
+        doc = pn.state.curdoc
+        if doc is not None and doc.session_context is not None:
+            count = self._input_count
+            doc.add_timeout_callback(lambda: self._resend_if_settled(count), SETTLE_MS)
+
+    def _resend_if_settled(self, count: int) -> None:
+        """Once input has stopped, send every input widget its value again.
+
+        While a person drags or types, the browser and the server can cross
+        messages (the browser shows a value the server has already replaced);
+        Panel then believes the browser shows what it sent. Sending every value
+        again once nothing new has come in makes what is shown the value in use.
+        """
+        if count != self._input_count or self._redraw_pending:
+            return
+        with pn.io.hold():
+            resend_values(self.input_widgets())
+
+    def input_widgets(self) -> list:
+        """Every widget of the page that holds an input."""
+        widgets = [self.unit_switch, *self.sliders.values(), self.mu_input,
+                   *self.entries.values(), self.spiral_switch, self.shape_switch,
+                   self.flange_source]
+        for row in self.layer_rows.objects[1:]:
+            widgets += [box for box in row.objects if isinstance(box, pn.widgets.FloatInput)]
+        return widgets + self.size_bars.input_widgets()
+
+    def _redraw_now(self) -> None:
         # One document message per update instead of one per changed property.
         with pn.io.hold():
             self._redraw()
@@ -333,27 +436,55 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.flange_note.object = self._flange_note(inputs)
         try:
             result = engine.check(**inputs.engine_kwargs())
-            curve = self._curve(inputs, result)
         except (engine.InputError, ArithmeticError) as error:
+            self._show_unchecked(inputs, error)
+            return
+        except Exception as error:  # an engine fault must not blank the page
+            LOG.exception("engine.check failed for %r", inputs)
             self._show_unchecked(inputs, error)
             return
         self.input_pane.object = ""
         self.check_tab.styles = {}
         self.result = result
-        self._update_as_end(inputs)
-        self.cards.object = summary.cards_html(result)
-        self._details_markup = summary.details_html(result)
-        self.details.object = self._details_markup
-        self.capacity_plot.update(curve, result)
+        self._draw_view("the As slider's range", self.cards, lambda: self._update_as_end(inputs))
+        self._draw_view("the verdict", self.cards,
+                        lambda: setattr(self.cards, "object", summary.cards_html(result)))
+        self._details_markup = ""
+        self._draw_view("the table of values", self.details, lambda: self._draw_details(result))
+        self.plot_note.object = ""
+        self._draw_view("the capacity plot", self.plot_note, lambda: self.capacity_plot.update(
+            self._curve(inputs, result), result))
         fc_slider = self.sliders["fc"]
-        self.sweep_plot.update(result, (fc_slider.start, fc_slider.end), inputs.section_kwargs())
-        self.size_bars.update(inputs)
+        self._draw_view("the plot of limits against f'c", self.plot_note,
+                        lambda: self.sweep_plot.update(result, (fc_slider.start, fc_slider.end),
+                                                       inputs.section_kwargs()))
+        self._draw_view("the bar sizing", self.size_bars.message,
+                        lambda: self.size_bars.update(inputs))
         option = matching_option(self.size_bars.result, inputs)
         if option is None and inputs.bars is not None:
             with param.discard_events(self):
                 self.bars = None  # the bars were edited away from the chosen arrangement
             inputs = replace(inputs, bars=None)
-        self._draw_sketch(inputs, result, option)
+        self._draw_view("the section sketch", self.sketch_note,
+                        lambda: self._draw_sketch(inputs, result, option))
+
+    def _draw_details(self, result: engine.FlexuralCheck) -> None:
+        self._details_markup = summary.details_html(result)
+        self.details.object = self._details_markup
+
+    def _draw_view(self, what: str, place: pn.pane.HTML, draw) -> None:
+        """Run `draw`; if it fails, say so in `place` (the view's own pane) instead.
+
+        A view that cannot draw the current inputs must never take the page
+        down with it: the rest of the page still shows the check.
+        """
+        try:
+            draw()
+        except Exception as error:
+            LOG.exception("could not draw %s", what)
+            place.object = summary.messages_html([
+                f"{what[0].upper()}{what[1:]} cannot be drawn for these inputs "
+                f"({type(error).__name__}: {error}). The check above is not affected."])
 
     def _show_unchecked(self, inputs: Inputs, error: Exception) -> None:
         """Say plainly, at the top, that `inputs` were not checked, and why."""
@@ -395,15 +526,10 @@ class BeamCheckPage(pn.viewable.Viewer):
             options=FLANGE_SOURCES, value="direct",
             sizing_mode="stretch_width", css_classes=["rs-input-flange-source"])
         self.flange_source.param.watch(self._on_flange_source, "value")
-        self.entries: dict[str, pn.widgets.FloatInput] = {}
-        for name, label in SECTION_ENTRIES:
-            entry = pn.widgets.FloatInput(label=label, value=None, start=0.0,
-                                          placeholder="none", format="0[.][0000]",
-                                          sizing_mode="stretch_width", align="end",
-                                          stylesheets=[ENTRY_CSS],
-                                          css_classes=[f"rs-input-{name}"])
-            entry.param.watch(lambda event, name=name: self._on_entry(name, event.new), "value")
-            self.entries[name] = entry
+        self.spiral_switch = pn.widgets.RadioButtonGroup(
+            options=SPIRAL_OPTIONS, value=self.spiral, sizing_mode="stretch_width",
+            css_classes=["rs-input-spiral"])
+        self.spiral_switch.param.watch(self._on_spiral, "value")
         self.flange_note = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
                                         margin=(0, 10))
         self.layer_rows = pn.Column(sizing_mode="stretch_width", margin=0)
@@ -411,31 +537,42 @@ class BeamCheckPage(pn.viewable.Viewer):
                                                   sizing_mode="stretch_width",
                                                   css_classes=["rs-add-layer"])
         self.add_layer_button.on_click(lambda event: self._add_layer())
-        self._shown_layers: tuple = ()
+        self.layer_note = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
+                                       margin=(0, 10))
         self.flange_box = pn.Column(
-            self.flange_source, pn.Row(self.entries["bf"], self.entries["hf"]),
-            pn.Row(self.entries["sw"], self.entries["ln"]), self.flange_note,
+            self.flange_source, self.flange_entries, self.flange_note,
             sizing_mode="stretch_width", margin=0, visible=False)
         self.section_card = pn.Card(
-            self.shape_switch, self.flange_box,
-            pn.Row(self.entries["h"], self.entries["dt"]),
-            pn.Row(self.entries["asc"], self.entries["dc"]),
+            self.shape_switch, self.flange_box, self.depth_entries,
+            pn.pane.HTML('<div class="rs-note">Transverse reinforcement (φ, ACI 318-19 '
+                         'Table 21.2.2)</div>', stylesheets=[TEXT_CSS], margin=(0, 10)),
+            self.spiral_switch,
             pn.pane.HTML('<div class="rs-note">Tension layers. The As and d sliders set the '
                          'first layer; each extra layer keeps the area and depth typed here '
                          '(As in the results is their total, d their centroid).</div>',
                          stylesheets=[TEXT_CSS], margin=(0, 10)),
-            self.layer_rows, self.add_layer_button,
+            self.layer_rows, self.add_layer_button, self.layer_note,
             title="Section shape, A's and layers", collapsed=False,
             sizing_mode="stretch_width", margin=(4, 6), css_classes=["rs-section-card"])
 
     def _label_entries(self, units: str) -> None:
         for name, label in SECTION_ENTRIES:
             self.entries[name].label = f"{label} ({unit_label(units, name)})"
+        default_es = engine.unit_system(units).default_es
+        self.entries["es"].placeholder = f"{default_es:,.0f} (ACI 20.2.2.2)"
 
-    def _on_entry(self, name: str, value) -> None:
+    def _on_entry(self, name: str, units: str, value) -> None:
         if self._applying:
             return
-        self.set_inputs(**{name: None if value is None else float(value)})
+        self._input_count += 1
+        value = None if value is None else self._in_use_units(name, float(value), units)
+        self.set_inputs(**{name: value})
+
+    def _on_spiral(self, event) -> None:
+        if self._applying or event.new == self.spiral:
+            return
+        self._input_count += 1
+        self.set_inputs(spiral=bool(event.new))
 
     def _on_shape(self, event) -> None:
         if self._applying or event.new == self.shape:
@@ -459,6 +596,12 @@ class BeamCheckPage(pn.viewable.Viewer):
             self.set_inputs(sw=None, ln=None, bf=self.inputs().bf)
 
     def _add_layer(self) -> None:
+        if len(self.layers) >= MAX_EXTRA_LAYERS:
+            # The button is disabled at the limit; a click already on its way is refused aloud.
+            self.layer_note.object = summary.messages_html([
+                f"layer: at most {MAX_EXTRA_LAYERS} extra tension layers; this one is not "
+                f"added."])
+            return
         depths = [self.d] + [depth for _, depth in self.layers]
         spacing = 2.5 if self.units == "us" else 63.0  # common practice: a layer 2.5 in up
         new = (float(f"{0.5 * self.As:.4g}"), max(min(depths) - spacing, 0.5 * min(depths)))
@@ -469,11 +612,13 @@ class BeamCheckPage(pn.viewable.Viewer):
         del layers[index]
         self.set_inputs(layers=tuple(layers), bars=None)
 
-    def _edit_layer(self, index: int, part: int, value) -> None:
-        if self._applying or value is None:
+    def _edit_layer(self, index: int, part: int, units: str, value) -> None:
+        if self._applying or value is None or index >= len(self.layers):
             return
+        self._input_count += 1
         layers = [list(layer) for layer in self.layers]
-        layers[index][part] = float(value)
+        layers[index][part] = self._in_use_units("As" if part == 0 else "d", float(value),
+                                                 units)
         self.set_inputs(layers=tuple(tuple(layer) for layer in layers), bars=None)
 
     def _sync_section_widgets(self, inputs: Inputs) -> None:
@@ -487,9 +632,17 @@ class BeamCheckPage(pn.viewable.Viewer):
                 value = getattr(inputs, name)
                 if self.entries[name].value != value:
                     self.entries[name].value = value
+            self.spiral_switch.value = inputs.spiral
             self.entries["bf"].disabled = slab
             self.entries["sw"].visible = self.entries["ln"].visible = slab
-            self._label_entries(inputs.units)
+            full = len(inputs.layers) >= MAX_EXTRA_LAYERS
+            self.add_layer_button.disabled = full
+            if full:
+                self.layer_note.object = (
+                    f'<div class="rs-note" data-q="layer_limit">{MAX_EXTRA_LAYERS} extra '
+                    f'tension layers, the most the page holds.</div>')
+            elif "layer_limit" in self.layer_note.object or "not added" in self.layer_note.object:
+                self.layer_note.object = ""
             if inputs.layers != self._shown_layers or len(self.layer_rows) != len(inputs.layers) + 1:
                 self._shown_layers = inputs.layers
                 self.layer_rows.objects = self._layer_row_widgets(inputs)
@@ -516,8 +669,11 @@ class BeamCheckPage(pn.viewable.Viewer):
             depth_box = pn.widgets.FloatInput(label=f"depth ({length_unit})", value=depth,
                                               start=0.0, format="0[.][0000]", width=110,
                                               css_classes=[f"rs-layer-{index + 2}-depth"])
-            area_box.param.watch(lambda e, i=index: self._edit_layer(i, 0, e.new), "value")
-            depth_box.param.watch(lambda e, i=index: self._edit_layer(i, 1, e.new), "value")
+            units = inputs.units
+            area_box.param.watch(lambda e, i=index: self._edit_layer(i, 0, units, e.new),
+                                 "value")
+            depth_box.param.watch(lambda e, i=index: self._edit_layer(i, 1, units, e.new),
+                                  "value")
             remove = pn.widgets.Button(label="✕", width=36, align="end",
                                        description="remove this layer",
                                        css_classes=[f"rs-layer-{index + 2}-remove"])
@@ -530,8 +686,7 @@ class BeamCheckPage(pn.viewable.Viewer):
             return ""
         system = engine.unit_system(inputs.units)
         try:
-            bf = engine.effective_flange_width(inputs.shape, inputs.b, inputs.hf, inputs.sw,
-                                               inputs.ln)
+            bf = slab_flange_width(inputs.shape, inputs.b, inputs.hf, inputs.sw, inputs.ln)
         except engine.InputError as error:
             return summary.messages_html([str(error)])
         return (f'<div class="rs-note">bf = <span data-q="bf_slab">{summary.fmt(bf)}</span> '
@@ -582,8 +737,7 @@ class BeamCheckPage(pn.viewable.Viewer):
                          '<div class="rs-note">Demo: Harbourline Depot, beam B-204</div>',
                          stylesheets=[TEXT_CSS], margin=(4, 10)),
             self.unit_switch,
-            *self.sliders.values(),
-            self.mu_input,
+            self.quantity_inputs,
             self.section_card,
             self.copy_button,
             width=330, min_width=280, stylesheets=[SIDEBAR_CSS], margin=(6, 8),

@@ -10,6 +10,8 @@ data-source columns and moves annotations; the figure objects stay the same.
 
 from __future__ import annotations
 
+import math
+
 import numpy as np
 from bokeh.models import (ColumnDataSource, HoverTool, Label, LabelSet, Legend, LegendItem,
                           NumeralTickFormatter, Range1d, Span)
@@ -167,7 +169,9 @@ class CapacityPlot:
                                eps_t=_finite(curve.eps_t),
                                section_class=list(curve.section_class))
         for key in LIMIT_KEYS:
-            self.spans[key].location = curve.marks[key]
+            mark = curve.marks[key]
+            self.spans[key].location = mark
+            self.spans[key].visible = mark is not None  # None: no steel area reaches it
         self.figure.yaxis.axis_label = f"moment ({system.moment})"
         self.hover.tooltips = [
             ("ρ", "@rho{0.00000}"), ("As", f"@As{{0.000}} {system.area}"),
@@ -178,8 +182,13 @@ class CapacityPlot:
     def _show_regions(self, marks: dict, y_top: float) -> None:
         self.y_range.update(start=0.0, end=y_top)
         x_end = self.x_range.end
-        edges = [0.0] + [marks[key] for key in LIMIT_KEYS] + [x_end]
-        edges[-1] = max(edges[-1], edges[-2])
+        # A limit no steel area reaches (the engine's None) has no region edge:
+        # its region closes at the next limit that exists, or the axis end.
+        edges = [0.0]
+        for key in LIMIT_KEYS:
+            mark = marks[key]
+            edges.append(edges[-1] if mark is None or not math.isfinite(mark) else mark)
+        edges.append(max(x_end, edges[-1]))
         names = list(REGION_STYLE)
         self.regions.data = dict(
             left=edges[:-1], right=edges[1:], bottom=[0.0] * 5, top=[y_top] * 5,
@@ -189,7 +198,7 @@ class CapacityPlot:
         # take alternate rows.
         rows = {"rho_min": 0.99, "rho_tc": 0.99, "rho_max": 0.935, "rho_b": 0.99}
         self.limit_labels.data = dict(
-            x=[marks[key] for key in LIMIT_KEYS],
+            x=[math.nan if marks[key] is None else marks[key] for key in LIMIT_KEYS],
             y=[y_top * rows[key] for key in LIMIT_KEYS],
             text=[LIMIT_LABELS[key] for key in LIMIT_KEYS],
             color=[LIMIT_STYLE[key][0] for key in LIMIT_KEYS])
@@ -266,5 +275,6 @@ def sweep_limits(section: dict, fc_span: tuple[float, float], points: int = 41) 
         limits = engine.check(**dict(kwargs, fc=fc)).limits
         columns["fc"].append(fc)
         for key in LIMIT_KEYS:
-            columns[key].append(getattr(limits, key))
+            value = getattr(limits, key)
+            columns[key].append(math.nan if value is None else value)  # None: not reached
     return columns

@@ -19,14 +19,14 @@ from __future__ import annotations
 from dataclasses import dataclass, field, fields, replace
 
 import engine
-from engine.share_link import KEYS, format_number, read_share_query, share_query
+from engine.share_link import KEYS, MAX_FIELDS, format_number, read_share_query, share_query
 
 NUMBER_FIELDS = ("fc", "fy", "b", "d", "As", "Mu")
 QUERY_KEYS = KEYS
 QUANTITY = {"fc": "stress", "fy": "stress", "b": "length", "d": "length", "As": "area",
             "Mu": "moment", "dt": "length", "h": "length", "bf": "length", "hf": "length",
             "sw": "length", "ln": "length", "asc": "area", "dc": "length", "cover": "length",
-            "agg": "length", "span": "length"}
+            "agg": "length", "span": "length", "es": "stress"}
 UNIT_NAMES = ("us", "si")
 SHAPES = ("rect", "T", "L")
 
@@ -63,7 +63,8 @@ SLIDER_SPANS = {
 }
 
 _MAX_SHOWN = 80  # characters of a rejected value quoted back in a message
-_MAX_LAYERS = 8  # extra tension layers a link may add
+MAX_EXTRA_LAYERS = 8  # extra tension layers the page holds (and a link may add)
+WHOLE_SECTION = ("fc", "fy", "b", "d", "As")  # a link with all of these gives the whole section
 
 
 @dataclass(frozen=True)
@@ -72,7 +73,9 @@ class Inputs:
 
     us: psi, in, in², kip·ft; si: MPa, mm, mm², kN·m. `Mu` is None for none.
     `As` at `d` is the first tension layer and `layers` the others, as
-    (area, depth) pairs (`engine.check`'s meaning). The flange (`bf`, `hf`)
+    (area, depth) pairs (`engine.check`'s meaning). `es` is Es (None: ACI
+    318-19 20.2.2.2's value for the unit system) and `spiral` whether the
+    transverse reinforcement is a spiral (φ of Table 21.2.2). The flange (`bf`, `hf`)
     counts only when `shape` is "T" or "L"; when `sw` and `ln` are set, `bf`
     was found from them. `cover` ... `bars` are the bar-sizing inputs (None:
     the engine's default); `bars` names the chosen arrangement ("#8:4,2").
@@ -102,6 +105,8 @@ class Inputs:
     span: float | None = None
     support: str | None = None
     bars: str | None = field(default=None)
+    es: float | None = None
+    spiral: bool = False
 
     @property
     def flanged(self) -> bool:
@@ -111,9 +116,11 @@ class Inputs:
         """Keyword arguments for `engine.check` (Mu included, None for none)."""
         kwargs = {"units": self.units, "fc": self.fc, "fy": self.fy, "b": self.b,
                   "d": self.d, "As": self.As, "Mu": self.Mu}
-        for name in ("dt", "h", "asc", "dc"):
+        for name in ("dt", "es", "h", "asc", "dc"):
             if getattr(self, name) is not None:
                 kwargs[name] = getattr(self, name)
+        if self.spiral:
+            kwargs["spiral"] = True
         if self.flanged:
             kwargs.update(bf=self.bf, hf=self.hf)
         if self.layers:
@@ -195,6 +202,19 @@ def _same_bar(designation: str | None, source, target) -> str | None:
     return engine.standard_bars(target)[index].designation
 
 
+def slab_flange_width(shape: str, b: float, hf: float, sw: float, ln: float) -> float:
+    """bf from the slab (ACI 318-19 Table 6.3.2.1, by the engine).
+
+    An `InputError` names the page's own field: the engine calls the clear
+    span `span`, which on the page is `ln` (`span` is the bar-sizing span).
+    """
+    try:
+        return engine.effective_flange_width(shape, b, hf, sw, ln)
+    except engine.InputError as error:
+        field = {"span": "ln", "clear_web_spacing": "sw"}.get(error.field, error.field)
+        raise engine.InputError(field, error.value, error.accepted, error.why) from None
+
+
 def unit_label(units: str, name: str) -> str:
     """The unit a field is entered in: "psi", "mm²", "kip·ft"..."""
     system = engine.unit_system(units)
@@ -226,6 +246,10 @@ def parse_query(search: str) -> tuple[Inputs, tuple[str, ...]]:
     if layers and "As" not in values and "d" not in values:
         # A link in the CLI's form: every tension layer as `layer`, no As and d.
         (values["As"], values["d"]), layers = layers[0], layers[1:]
+    if "Mu" not in values and all(name in values for name in WHOLE_SECTION):
+        # A link that gives the whole section and no Mu is a check without a
+        # demand, as on the command line (`report` without --mu writes such links).
+        values["Mu"] = None
     for name in NUMBER_FIELDS:
         if name not in values:
             continue
@@ -239,10 +263,18 @@ def parse_query(search: str) -> tuple[Inputs, tuple[str, ...]]:
         else:
             messages.append(_rejected(name, number, error, _fallback(units, name)))
     kwargs = dict(accepted)
-    if len(layers) > _MAX_LAYERS:
-        messages.append(f"layer: {len(layers)} extra layers in the link; using the first "
-                        f"{_MAX_LAYERS}.")
-        layers = layers[:_MAX_LAYERS]
+    if reading.unread:
+        messages.append(f"The link has {reading.unread} more fields than the "
+                        f"{MAX_FIELDS} that are read; those are left out.")
+    if len(layers) > MAX_EXTRA_LAYERS:
+        left_out = ", ".join(f"{format_number(area)}@{format_number(depth)}"
+                             for area, depth in layers[MAX_EXTRA_LAYERS:])
+        first, last = MAX_EXTRA_LAYERS + 2, len(layers) + 1
+        which = f"layer {first} ({left_out}) is" if first == last else (
+            f"layers {first} to {last} ({left_out}) are")
+        messages.append(f"layer: the link has {len(layers)} extra tension layers; the page "
+                        f"takes at most {MAX_EXTRA_LAYERS}, so {which} left out.")
+        layers = layers[:MAX_EXTRA_LAYERS]
     kept_layers = []
     for index, layer in enumerate(layers, start=2):
         error = _group_rejects(units, dict(kwargs, layers=kept_layers + [layer]))
@@ -257,6 +289,12 @@ def parse_query(search: str) -> tuple[Inputs, tuple[str, ...]]:
     for name in ("dt", "h"):
         if values.get(name) is not None:
             kwargs = _try(units, kwargs, {name: values[name]}, messages, name)
+    if values.get("es") is not None:
+        kwargs = _try(units, kwargs, {"es": values["es"]}, messages, "es",
+                      f"Using Es = {format_number(engine.unit_system(units).default_es)} "
+                      f"{unit_label(units, 'es')} (ACI 318-19 20.2.2.2).")
+    if values.get("spiral"):
+        kwargs["spiral"] = True
     shape = values.get("shape")
     if shape is None and (values.get("bf") is not None or values.get("hf") is not None):
         shape = "T"
@@ -304,15 +342,20 @@ def _flange(units: str, shape: str, kwargs: dict, values: dict, messages: list) 
         hf = base["hf"]
     slab = {}
     sw, ln = values.get("sw"), values.get("ln")
+    bf = values.get("bf")
+    given = ("The flange width bf is taken as given." if bf is not None else
+             f"Using bf = {format_number(max(kwargs['b'], base['bf']))} "
+             f"{unit_label(units, 'bf')}.")
     if sw is not None and ln is not None:
         try:
-            bf = engine.effective_flange_width(shape, kwargs["b"], hf, sw, ln)
+            bf = slab_flange_width(shape, kwargs["b"], hf, sw, ln)
             slab = {"sw": sw, "ln": ln}
         except (engine.InputError, ArithmeticError) as error:
-            messages.append(f"{error}. The flange width is taken as given.")
-            bf = values.get("bf")
-    else:
-        bf = values.get("bf")
+            messages.append(f"{error}. {given}")
+    elif sw is not None or ln is not None:
+        missing = "ln" if ln is None else "sw"
+        messages.append(f"{missing}: missing; bf from the slab (Table 6.3.2.1) needs both sw "
+                        f"and ln. {given}")
     if bf is None:
         bf = max(kwargs["b"], base["bf"])
     error = _group_rejects(units, dict(kwargs, bf=bf, hf=hf))
@@ -344,7 +387,7 @@ def _design_settings(units: str, kwargs: dict, values: dict, messages: list) -> 
                 messages.append(_rejected(name, value, error, "Using the default."))
                 continue
         except ArithmeticError:
-            continue
+            pass  # not this value's fault: kept, and the bar-sizing tab says what failed
         settings[name] = value
     span, support = values.get("span"), values.get("support")
     if (span is None) != (support is None):
@@ -353,9 +396,17 @@ def _design_settings(units: str, kwargs: dict, values: dict, messages: list) -> 
     elif span is not None:
         try:
             engine.design_section(**base, span=span, support=support)
-            settings.update(span=span, support=support)
         except engine.InputError as error:
-            messages.append(_rejected(error.field, error.value, error, "Left out."))
+            if error.field in ("span", "support"):
+                messages.append(_rejected(error.field, error.value, error,
+                                          "The span and support are left out."))
+                span = support = None
+            # Any other field's error is not the span's: both are kept, and the
+            # bar-sizing tab names that field.
+        except ArithmeticError:
+            pass
+        if span is not None:
+            settings.update(span=span, support=support)
     if values.get("bars") is not None:
         settings["bars"] = values["bars"]
     return settings

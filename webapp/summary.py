@@ -196,11 +196,11 @@ def details_html(result: engine.FlexuralCheck) -> str:
               'compression), from the engine\'s strain compatibility (22.2.1.2).</div>')
     limit_rows = []
     for key, as_key, symbol, what, clause in LIMITS:
-        if r[key] is None:  # no tension steel area reaches it; the warnings say why
+        if r[key] is None or r[as_key] is None:  # no tension steel area reaches it; the warnings say why
             limit_rows.append(
                 f'<tr><td><b>{symbol}</b><br><span class="rs-note">{escape(what)}; '
                 f'{escape(clause)}</span></td>'
-                f'<td class="num">{_q(key, "not reachable")}</td><td class="num">—</td>'
+                f'<td class="num">{_q(key, "not reachable")}</td><td class="num">{_q(as_key, "—")}</td>'
                 f'<td class="num">—</td></tr>')
             continue
         d_rho, d_as = r["rho"] - r[key], r["As"] - r[as_key]
