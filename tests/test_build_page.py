@@ -34,9 +34,11 @@ def test_the_link_reaches_panels_location_even_when_panels_own_parsing_refuses_i
     from panel.io.state import state
     from panel.util import edit_readonly
 
+    from webapp.location_guard import page_location
+
     code = app_code("")
     function = code[code.index("def rhoscope_set_location"):code.index("init_doc()")]
-    namespace = {"json": json, "state": state, "edit_readonly": edit_readonly}
+    namespace = {"json": json, "edit_readonly": edit_readonly, "page_location": page_location}
     exec(function, namespace)  # panel.io.pyodide itself needs the browser's `js` module
     search = "?x=%C2%B2&units=us&fc=3000"
     state.curdoc = Document()
@@ -44,6 +46,7 @@ def test_the_link_reaches_panels_location_even_when_panels_own_parsing_refuses_i
         namespace["rhoscope_set_location"](json.dumps({"search": search, "href": "http://h/" + search,
                                                       "ancestorOrigins": {}}))
         assert state.location.search == search
+        assert state.location.query_params["x"] == "²"  # the page's location never refuses it
     finally:
         state.curdoc = None
 

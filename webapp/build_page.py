@@ -43,18 +43,19 @@ def app_code(app_source: str) -> str:
 
     Panel's own worker applies the page's address only after the page has
     rendered, so a link's page would first be built (and shown) with the
-    default inputs. Here the address is given to Panel's location before the
-    app script runs, and the page reads the link while it is built.
+    default inputs. Here the address is given to the page's location
+    (`webapp.location_guard`) before the app script runs, and the page reads
+    the link while it is built.
     """
     return "\n".join([
         "import json",
         "from panel.io.pyodide import init_doc, write_doc",
-        "from panel.io.state import state",
         "from panel.util import edit_readonly",
+        "from webapp.location_guard import page_location",
         "",
         "def rhoscope_set_location(text):",
         "    data = json.loads(text)",
-        "    location = state.location",
+        "    location = page_location()  # the page's own, which never refuses a query",
         "    if location is None:",
         "        return",
         "    try:",
