@@ -63,7 +63,9 @@ SLIDER_SPANS = {
 }
 
 _MAX_SHOWN = 80  # characters of a rejected value quoted back in a message
-MAX_EXTRA_LAYERS = 8  # extra tension layers the page holds (and a link may add)
+# Extra tension layers the page holds: every layer a link can carry (the reader takes
+# MAX_FIELDS fields), so a link the CLI or the sheet wrote opens with all of its layers.
+MAX_EXTRA_LAYERS = MAX_FIELDS
 WHOLE_SECTION = ("fc", "fy", "b", "d", "As")  # a link with all of these gives the whole section
 
 
