@@ -139,3 +139,25 @@ def test_a_query_panel_cannot_parse_still_reaches_the_page():
 def test_fields_past_what_is_read_are_counted_aloud():
     query = "?units=us&fc=4000&fy=60000&b=14&d=21.5&As=3&Mu=100&" + "&".join(f"x{i}=1" for i in range(70))
     assert any("more fields than the 64 that are read" in m for m in opened(query).link_messages)
+
+
+def test_in_the_pyodide_worker_a_change_redraws_at_once(monkeypatch):
+    # The worker's document has Panel's stand-in session context, but no event loop runs the
+    # callbacks a server session would: a scheduled redraw would never come (blank results).
+    from bokeh.document import Document
+    from panel.io.document import MockSessionContext
+    from panel.io.state import state
+
+    import webapp.page as page_module
+
+    page = BeamCheckPage()
+    doc = Document()
+    doc._session_context = lambda: MockSessionContext(document=doc)
+    monkeypatch.setattr(page_module.sys, "platform", "emscripten")
+    state.curdoc = doc
+    try:
+        page.set_inputs(As=4.0)
+    finally:
+        state.curdoc = None
+    assert page.result.phiMn == engine.check(**page.current_inputs()).phiMn
+    assert page.result.to_dict()["As"] == 4.0

@@ -12,6 +12,7 @@ from __future__ import annotations
 
 import logging
 import math
+import sys
 from dataclasses import replace
 from html import escape
 
@@ -79,6 +80,16 @@ def _checks(inputs: Inputs) -> bool:
     except (engine.InputError, ArithmeticError):
         return False
     return True
+
+
+def on_server(doc) -> bool:
+    """Whether `doc` belongs to a Panel server session, whose event loop runs scheduled callbacks.
+
+    In the static site's Pyodide worker Panel gives the document a stand-in
+    session context, but nothing ever runs callbacks added to it: there the
+    page redraws at once (the page sends the worker one change at a time).
+    """
+    return doc is not None and doc.session_context is not None and sys.platform != "emscripten"
 
 
 class BeamCheckPage(pn.viewable.Viewer):
@@ -374,9 +385,8 @@ class BeamCheckPage(pn.viewable.Viewer):
 
     @param.depends("fc", "fy", "b", "d", "As", "Mu", "units", *OTHER_FIELDS, watch=True)
     def _refresh(self) -> None:
-        doc = pn.state.curdoc
-        if doc is None or doc.session_context is None:
-            self._redraw_now()  # no server session (tests, the Pyodide worker): at once
+        if not on_server(pn.state.curdoc):
+            self._redraw_now()  # tests, and the Pyodide worker (one change at a time): at once
             return
         # On a server, changes the browser sent in a burst are queued; each sets
         # its parameter, and one redraw (after them all) shows the last state
@@ -389,7 +399,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         self._redraw_pending = False
         self._redraw_now()
         doc = pn.state.curdoc
-        if doc is not None and doc.session_context is not None:
+        if on_server(doc):
             count = self._input_count
             doc.add_timeout_callback(lambda: self._resend_if_settled(count), SETTLE_MS)
 
