@@ -415,6 +415,11 @@ class BeamCheckPage(pn.viewable.Viewer):
             return
         with pn.io.hold():
             resend_values(self.input_widgets())
+            # The link follows a slider's value_throttled, which can be handled before
+            # the slider's last value (arrow keys in a row left fc=4100 in the address
+            # bar while 4250 was checked); once input settles it is written from the
+            # values in use (no change, no write).
+            self._write_link()
 
     def input_widgets(self) -> list:
         """Every widget of the page that holds an input."""
