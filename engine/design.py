@@ -35,6 +35,7 @@ from .errors import InputError
 from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
 from .materials import yield_strain
 from .required_steel import design_moment, required_steel
+from .root_finding import least_root_from_above
 from .section import BeamSection, SteelLayer
 from .strength_reduction import TENSION_CONTROL_MARGIN
 from .units import UnitSystem, unit_system
@@ -606,25 +607,9 @@ def _concrete_needed(section: DesignSection, d: float) -> float | None:
         return None
     low, high = section.fc, top
     f_low = shortfall(low)
-    side = 0
-    for _ in range(100):
-        if high - low <= 1e-3 or f_high == 0:
-            break
-        guess = (low * f_high - high * f_low) / (f_high - f_low)
-        if not low < guess < high:
-            guess = 0.5 * (low + high)
-        f_guess = shortfall(guess)
-        if f_guess >= 0:
-            high, f_high = guess, f_guess
-            if side == 1:
-                f_low *= 0.5  # the low end has gone stale: halve its weight
-            side = 1
-        else:
-            low, f_low = guess, f_guess
-            if side == -1:
-                f_high *= 0.5
-            side = -1
-    return high
+    return least_root_from_above(shortfall, low, f_low, high, f_high,
+                                 lambda low, high, f_high: high - low <= 1e-3 or f_high == 0,
+                                 max_steps=100)
 
 
 def _warnings(section: DesignSection, best: BarOption | None) -> tuple[str, ...]:

@@ -7,10 +7,11 @@ import math
 from .flexure import capacity_point
 from .limits import EPS_T_BEAM_MINIMUM, areas_reaching_strain
 from .materials import BLOCK_STRESS_FACTOR, EPS_CU, beta1, yield_strain
+from .root_finding import least_root_from_above
 from .section import BeamSection
-from .units import quoted_moment
 from .strength_reduction import (PHI_TENSION_CONTROLLED, TENSION_CONTROL_MARGIN, SectionClass,
                                  section_class)
+from .units import quoted_moment
 
 _GRID = 24  # transition-zone scan: there φMn may fall as As rises
 _RELATIVE_TOLERANCE = 1e-12
@@ -111,25 +112,10 @@ def _least_root(f, low: float, f_low: float, high: float, f_high: float, scale: 
     The answer always has f ≥ 0 (the demand is met), within a relative
     tolerance of the root in both As and moment.
     """
-    side = 0
-    for _ in range(200):
-        if high - low <= _RELATIVE_TOLERANCE * high or f_high <= _RELATIVE_TOLERANCE * scale:
-            break
-        x = (low * f_high - high * f_low) / (f_high - f_low)
-        if not low < x < high:
-            x = 0.5 * (low + high)
-        f_x = f(x)
-        if f_x >= 0:
-            high, f_high = x, f_x
-            if side == 1:
-                f_low *= 0.5  # the low end has gone stale: halve its weight
-            side = 1
-        else:
-            low, f_low = x, f_x
-            if side == -1:
-                f_high *= 0.5
-            side = -1
-    return high
+    def settled(low: float, high: float, f_high: float) -> bool:
+        return high - low <= _RELATIVE_TOLERANCE * high or f_high <= _RELATIVE_TOLERANCE * scale
+
+    return least_root_from_above(f, low, f_low, high, f_high, settled, max_steps=200)
 
 
 def _tension_controlled_steel(beam: BeamSection, Mu_base: float) -> float | None:
