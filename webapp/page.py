@@ -31,7 +31,7 @@ from .location_guard import page_location
 from .state import (DEFAULTS, INPUT_FIELDS, MAX_EXTRA_LAYERS, NUMBER_FIELDS, QUANTITY,
                     SECTION_DEFAULTS, SLIDER_SPANS, Inputs, convert_inputs, default_inputs,
                     parse_query, rounded_inputs, slab_flange_width, unit_label)
-from .widget_sync import resend_values
+from .widget_sync import ServerSetValues, resend_values
 from .theme import ENTRY_CSS, SIDEBAR_CSS, TEXT_CSS
 
 SLIDER_FIELDS = ("fc", "fy", "b", "d", "As")
@@ -140,6 +140,8 @@ class BeamCheckPage(pn.viewable.Viewer):
         # browser sent from an old one before it saw the switch is known to be in
         # the old units and is converted, never read in the new ones.
         self._widget_units = self.units
+        if on_server(pn.state.curdoc):
+            ServerSetValues.of(pn.state.curdoc)  # from the start: a link applies before any input
         self.unit_switch = pn.widgets.RadioButtonGroup(
             label="Units", options=UNIT_OPTIONS, value=self.units, color="primary",
             variant="outline", sizing_mode="stretch_width")
@@ -404,12 +406,13 @@ class BeamCheckPage(pn.viewable.Viewer):
             doc.add_timeout_callback(lambda: self._resend_if_settled(count), SETTLE_MS)
 
     def _resend_if_settled(self, count: int) -> None:
-        """Once input has stopped, send every input widget its value again.
+        """Once input has stopped, send the input widgets the server set their values again.
 
         While a person drags or types, the browser and the server can cross
         messages (the browser shows a value the server has already replaced);
-        Panel then believes the browser shows what it sent. Sending every value
-        again once nothing new has come in makes what is shown the value in use.
+        Panel then believes the browser shows what it sent. Sending those values
+        again once nothing new has come in makes what is shown the value in use
+        (`widget_sync`).
         """
         if count != self._input_count or self._redraw_pending:
             return
