@@ -455,3 +455,11 @@ def test_a_layer_list_with_one_layer_is_the_closed_form():
     as_layer = sheet_steps(dict(units="us", fc=4000, fy=60000, b=12, layers=[(3.16, 21.5)],
                                 Mu=180))
     assert [s.key for s in as_layer] == [s.key for s in sheet_steps(CASES["B-101-us"])]
+
+
+def test_the_strain_limit_ratio_is_named_by_what_it_is():
+    # ACI 318-19 defines no ρmax; the 9.3.3.1 limit is εt ≥ 0.004 (see test_webapp_page).
+    document = calculation_sheet(CASES["B-101-us"], project="", mark="", engineer="",
+                                 date="2025-03-14", link="")
+    assert "ρ<sub>max</sub>" not in document and "ρmax" not in document
+    assert "ρ at ε<sub>t</sub> = 0.004" in document

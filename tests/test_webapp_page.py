@@ -250,6 +250,18 @@ def test_verdict_without_mu_says_strength_was_not_checked(page):
     # must not read as if strength had passed.
     page.mu_input.value = None
     verdict = displayed(page.cards.object)["verdict"][0]
-    assert "Passes" in verdict and "no Mu given: strength not checked" in verdict
+    assert "Passes" not in verdict and "✔" not in verdict
+    assert "strength not checked" in verdict and "no Mu given" in verdict
+    assert 'rs-verdict ok' not in page.cards.object  # not drawn in the pass colour
     page.mu_input.value = 190.0
     assert "not checked" not in displayed(page.cards.object)["verdict"][0]
+
+
+def test_the_strain_limit_ratio_is_named_by_what_it_is(page):
+    # ACI 318-19 defines no ρmax: the beam limit of 9.3.3.1 is a strain, εt ≥ 0.004,
+    # and "ρmax" reads as the retired 0.75ρb (ACI 318-99 10.3.3, from memory).
+    from webapp.plot import LIMIT_LABELS
+    page_text = page.cards.object + page.details.object
+    assert "ρmax" not in page_text and "ρmax" not in "".join(LIMIT_LABELS.values())
+    assert "ρ at εt = 0.004" in page_text and "9.3.3.1" in page_text
+    assert LIMIT_LABELS["rho_max"] == "ρ at εt = 0.004"

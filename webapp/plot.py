@@ -22,7 +22,7 @@ import engine
 from .theme import BRONZE, CORAL, FONT, INK, LIMIT_STYLE, MUTED, REGION_STYLE, TEAL
 
 LIMIT_KEYS = ("rho_min", "rho_tc", "rho_max", "rho_b")
-LIMIT_LABELS = {"rho_min": "ρmin", "rho_tc": "ρtc", "rho_max": "ρmax (εt = 0.004)",
+LIMIT_LABELS = {"rho_min": "ρmin", "rho_tc": "ρtc", "rho_max": "ρ at εt = 0.004",
                 "rho_b": "ρb"}
 REGION_NAMES = {
     "below-min": "below ρmin",
@@ -194,7 +194,7 @@ class CapacityPlot:
             left=edges[:-1], right=edges[1:], bottom=[0.0] * 5, top=[y_top] * 5,
             color=[REGION_STYLE[n][0] for n in names], hatch=[REGION_STYLE[n][1] for n in names],
             name=[REGION_NAMES[n] for n in names])
-        # Labels sit in the head room; ρtc and ρmax are often close, so they
+        # Labels sit in the head room; ρtc and ρ at εt = 0.004 are often close, so they
         # take alternate rows.
         rows = {"rho_min": 0.99, "rho_tc": 0.99, "rho_max": 0.935, "rho_b": 0.99}
         self.limit_labels.data = dict(

@@ -22,7 +22,8 @@ LIMITS = (
     ("rho_min", "As_min", "ρmin", "minimum steel", "ACI 318-19 9.6.1.2"),
     ("rho_tc", "As_tc", "ρtc", "tension-controlled limit, εt = εty + 0.003",
      "ACI 318-19 Table 21.2.2"),
-    ("rho_max", "As_max", "ρmax", "beam limit, εt = 0.004", "ACI 318-19 9.3.3.1"),
+    # ACI 318-19 defines no "ρmax"; the beam limit is a strain, εt ≥ 0.004 (9.3.3.1).
+    ("rho_max", "As_max", "ρ at εt = 0.004", "beam limit, εt ≥ 0.004", "ACI 318-19 9.3.3.1"),
     ("rho_b", "As_b", "ρb", "balanced, εt = εty", "ACI 318-19 21.2.2"),
 )
 
@@ -70,7 +71,9 @@ def verdict(r: dict) -> tuple[str, str, str]:
     count = len(r["checks"])
     checks = "both checks" if count == 2 else f"all {count} checks"
     if r.get("Mu") is None:
-        checks += " (no Mu given: strength not checked)"
+        # Without Mu, 9.5.1.1 (φMn ≥ Mu) is not checked: never a strength "pass".
+        return "none", "Limits met · strength not checked", (
+            f"{checks} on the steel pass; no Mu given: enter Mu to check φMn ≥ Mu")
     return "ok", "✔ Passes", checks
 
 
@@ -90,12 +93,13 @@ def cards_html(result: engine.FlexuralCheck) -> str:
     ]
     if r.get("Mu") is not None:
         cards.append(
-            f'<div class="rs-card"><div class="k">Demand Mu · Mu/φMn</div>'
+            f'<div class="rs-card"><div class="k">Demand Mu as a share of φMn</div>'
             f'<div class="v">{_q("utilization", fmt(r["utilization"], 3))}</div>'
             f'<div class="n">Mu = {_q("Mu", fmt(r["Mu"]))} {moment}</div></div>')
     else:
         cards.append('<div class="rs-card"><div class="k">Demand Mu</div>'
-                     '<div class="v">—</div><div class="n">none entered</div></div>')
+                     '<div class="v">—</div><div class="n">none entered: strength not checked'
+                     '</div></div>')
     cards.append(
         f'<div class="rs-card"><div class="k">Section class</div>'
         f'<div class="v" style="font-size:17px">'
@@ -121,7 +125,7 @@ def unchecked_cards_html(reason: str, units: str) -> str:
         f'<div class="rs-card stale"><div class="k">Design strength φMn</div>'
         f'<div class="v">—<span class="u">{moment}</span></div>'
         '<div class="n">not checked</div></div>',
-        '<div class="rs-card stale"><div class="k">Demand Mu · Mu/φMn</div>'
+        '<div class="rs-card stale"><div class="k">Demand Mu as a share of φMn</div>'
         '<div class="v">—</div><div class="n">not checked</div></div>',
         '<div class="rs-card stale"><div class="k">Section class</div>'
         '<div class="v" style="font-size:17px">—</div><div class="n">not checked</div></div>',

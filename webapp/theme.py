@@ -53,6 +53,7 @@ TEXT_CSS = f"""
 .rs-verdict {{ flex: 2 1 220px; border-width: 2px; }}
 .rs-verdict.ok {{ border-color: {PASS}; }}
 .rs-verdict.bad {{ border-color: {FAIL}; background: #fff6f5; }}
+.rs-verdict.none {{ border-color: {MUTED}; }}
 .rs-verdict.stale {{ border-color: {MUTED}; border-style: dashed; background: #f1f2f2; }}
 .rs-card.stale .v, .rs-card.stale .k {{ color: {MUTED}; }}
 .stale .rs-mark {{ color: {INK}; }}

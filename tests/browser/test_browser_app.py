@@ -194,7 +194,7 @@ def test_plot_is_drawn_with_its_limit_markers(page, app_url, screenshots):
     assert spans()["Mu"]["visible"] and spans()["Mu"]["location"] == 300
     labels = next(s for s in bokeh_models(page, "ColumnDataSource")
                   if s["name"] == "limit-labels")
-    assert labels["data"]["text"] == ["ρmin", "ρtc", "ρmax (εt = 0.004)", "ρb"]
+    assert labels["data"]["text"] == ["ρmin", "ρtc", "ρ at εt = 0.004", "ρb"]
     canvas = page.locator("canvas").first
     expect(canvas).to_be_visible()
     assert canvas.bounding_box()["width"] > 300

@@ -128,7 +128,7 @@ def test_a_failing_beams_link_shows_its_own_check_first_and_never_the_default(
     assert math.isclose(shown, expected.phiMn, abs_tol=0.05)  # shown to 4 figures: 129.6
     assert look["quantities"]["Section class"] == "Compression-controlled"
     assert float(look["quantities"]["Net tensile strain εt"]) == pytest.approx(expected.state.eps_t, rel=1e-3)
-    assert look["ratios"] == ["ρ", "ρmin", "ρtc", "ρmax", "ρb"]
+    assert look["ratios"] == ["ρ", "ρmin", "ρtc", "ρ at εt = 0.004", "ρb"]
     assert "Caution." in page.inner_text("#rs-first-look")
 
     # Nothing of any other beam, from the first paint on: the default beam
