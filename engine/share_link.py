@@ -32,6 +32,7 @@ from urllib.parse import parse_qsl, urlencode, urlsplit, urlunsplit
 from .detailing import Support
 from .errors import InputError
 from .units import unit_system
+from .validation import decimal_text
 
 NUMBER_KEYS = ("fc", "fy", "b", "d", "As", "Mu", "dt", "es", "h", "bf", "hf", "asc", "dc")
 CHECK_KEYS = ("units",) + NUMBER_KEYS + ("layers", "spiral")
@@ -45,7 +46,6 @@ MAX_FIELDS = 64  # query fields read at all; the rest of a huge query is ignored
 
 # What a link may carry for a number: the decimal forms `format_number` writes
 # and people type; no "nan", "inf", underscores, hexadecimal or non-ASCII digits.
-_NUMBER_TEXT = re.compile(r"[+-]?([0-9]+(\.[0-9]*)?|\.[0-9]+)([eE][+-]?[0-9]+)?")
 _DESIGNATION = re.compile(r"#?[0-9]{1,2}")
 _BARS = re.compile(r"(#?[0-9]{1,2}):([0-9]{1,3}(?:,[0-9]{1,3}){0,3})")
 _TRUE, _FALSE = ("1", "true", "yes", "on"), ("0", "false", "no", "off")
@@ -244,13 +244,7 @@ def _value(key: str, text: str) -> object:
 
 
 def _number(key: str, text: str) -> float:
-    stripped = text.strip()
-    if not _NUMBER_TEXT.fullmatch(stripped):
-        _refuse(key, text, "a decimal number such as 4000 or 3.16")
-    number = float(stripped)
-    if not math.isfinite(number):
-        _refuse(key, text, "a finite decimal number (this one is too large)")
-    return number
+    return decimal_text(key, text)
 
 
 def _layer(text: str, index: int) -> tuple[float, float]:

@@ -9,6 +9,7 @@ in `scope.py`.
 from __future__ import annotations
 
 import math
+import re
 from numbers import Real
 
 from .errors import InputError
@@ -32,6 +33,29 @@ _SMALLEST_FRACTION = 1e-12
 def hard_maximum(system: UnitSystem, kind: str) -> float:
     """The largest value of `kind` the engine computes in `system`."""
     return _HARD_MAXIMA[system.name][kind]
+
+
+# A decimal number as a person or a link writes one: digits, one point, an exponent.
+# No thousands separators, no decimal comma, no underscores or other digits.
+DECIMAL_TEXT = re.compile(r"[+-]?([0-9]+(\.[0-9]*)?|\.[0-9]+)([eE][+-]?[0-9]+)?")
+
+
+def decimal_text(field: str, text: str) -> float:
+    """The number `text` writes, or an `InputError` naming `field` and saying why not.
+
+    "5,000" is refused rather than read: a comma is a thousands separator in
+    one office and a decimal point in the next, and either reading can be wrong.
+    """
+    stripped = text.strip()
+    if not DECIMAL_TEXT.fullmatch(stripped):
+        if "," in stripped and DECIMAL_TEXT.fullmatch(stripped.replace(",", "")):
+            raise InputError(field, text, "a number without a comma, such as 5000 or 3.16",
+                             why="a comma can be a thousands separator or a decimal point")
+        raise InputError(field, text, "a decimal number such as 4000 or 3.16")
+    number = float(stripped)
+    if not math.isfinite(number):
+        raise InputError(field, text, "a finite decimal number (this one is too large)")
+    return number
 
 
 def number(field: str, value: object, accepted: str = "a finite number") -> float:

@@ -69,7 +69,7 @@ def test_moving_as_after_choosing_makes_the_bars_schematic(page):
 
 
 def test_no_working_option_shows_the_verdict_and_ways_out(page):
-    page.mu_input.value = 2000.0
+    page.mu_input.value = "2000.0"
     html = page.size_bars.verdict.object
     assert "No singly reinforced" in html and "deeper section" in html
     assert displayed(html)["remedies"]

@@ -80,7 +80,7 @@ def test_heavy_steel_shows_the_failing_strain_check(page):
 
 
 def test_mu_entry_blank_means_no_strength_check(page):
-    page.mu_input.value = None
+    page.mu_input.value = ""
     assert page.Mu is None
     assert_shows(page, engine.check(units="us", fc=4000, fy=60000, b=14, d=21.5, As=3.16))
     assert "9.5.1.1" not in page.details.object
@@ -248,12 +248,12 @@ def test_plot_legends_sit_outside_the_axes_and_ticks_are_plain(page):
 def test_verdict_without_mu_says_strength_was_not_checked(page):
     # Without Mu, ACI 318-19 9.5.1.1 (φMn ≥ Mu) cannot be checked: the verdict
     # must not read as if strength had passed.
-    page.mu_input.value = None
+    page.mu_input.value = ""
     verdict = displayed(page.cards.object)["verdict"][0]
     assert "Passes" not in verdict and "✔" not in verdict
     assert "strength not checked" in verdict and "no Mu given" in verdict
     assert 'rs-verdict ok' not in page.cards.object  # not drawn in the pass colour
-    page.mu_input.value = 190.0
+    page.mu_input.value = "190.0"
     assert "not checked" not in displayed(page.cards.object)["verdict"][0]
 
 

@@ -61,9 +61,9 @@ def test_shape_switch_adds_and_drops_the_flange(page):
 def test_flange_from_the_slab_follows_table_6_3_2_1(page):
     page.shape_switch.value = "T"
     page.flange_source.value = "slab"
-    page.entries["hf"].value = 5.0
-    page.entries["sw"].value = 100.0
-    page.entries["ln"].value = 240.0
+    page.entries["hf"].value = "5.0"
+    page.entries["sw"].value = "100.0"
+    page.entries["ln"].value = "240.0"
     # ACI 318-19 Table 6.3.2.1 (T): each overhang the least of 8 hf = 40, sw/2 = 50 and
     # ln/8 = 30 in, so bf = 14 + 2 × 30 = 74 in.
     assert page.inputs().bf == pytest.approx(74.0)
@@ -76,15 +76,18 @@ def test_flange_from_the_slab_follows_table_6_3_2_1(page):
 
 
 def test_compression_steel_and_a_second_layer_reach_the_engine(page):
-    page.entries["asc"].value = 0.62
-    page.entries["dc"].value = 2.5
+    page.entries["asc"].value = "0.62"
+    page.entries["dc"].value = "2.5"
+    before = phi_mn_shown(page)
     page._add_layer()
-    assert len(page.layers) == 1 and len(page.layer_rows) == 2
-    area_box = page.layer_rows[1][0]
-    area_box.value = 1.2
-    depth_box = page.layer_rows[1][1]
-    depth_box.value = 18.5
-    assert page.layers == ((1.2, 18.5),)
+    # A new layer starts empty and changes nothing until both values are typed.
+    assert page.layers == () and len(page.layer_rows) == 3  # layer 1, the new row, its note
+    area_box, depth_box = page.layer_rows[1][0], page.layer_rows[1][1]
+    assert area_box.value == "" and depth_box.value == ""
+    area_box.value = "1.2"
+    assert page.layers == () and phi_mn_shown(page) == before
+    depth_box.value = "18.5"
+    assert page.layers == ((1.2, 18.5),) and len(page.layer_rows) == 2
     expected = engine.check(units="us", fc=4000, fy=60000, b=14, d=21.5, As=3.16, Mu=190,
                             asc=0.62, dc=2.5, layers=[(1.2, 18.5)])
     assert phi_mn_shown(page) == pytest.approx(expected.phiMn, rel=DISPLAY_REL)

@@ -31,6 +31,7 @@ from .location_guard import page_location
 from .state import (DEFAULTS, INPUT_FIELDS, MAX_EXTRA_LAYERS, NUMBER_FIELDS, QUANTITY,
                     SECTION_DEFAULTS, SLIDER_SPANS, Inputs, convert_inputs, default_inputs,
                     parse_query, rounded_inputs, slab_flange_width, unit_label)
+from .number_box import number_box, read_number, shown_number, shows
 from .widget_sync import ServerSetValues, resend_values
 from .theme import ENTRY_CSS, SIDEBAR_CSS, TEXT_CSS
 
@@ -124,6 +125,7 @@ class BeamCheckPage(pn.viewable.Viewer):
                       doc="Es in psi or MPa; None: ACI 318-19 20.2.2.2's value")
     spiral = param.Boolean(default=False, doc="spiral transverse reinforcement (φ, Table 21.2.2)")
     link_messages = param.List(default=[], doc="problems with the opened link's values")
+    refusals = param.Dict(default={}, doc="typed text that could not be read, by field: its error")
 
     def __init__(self, **params) -> None:
         super().__init__(**params)
@@ -135,6 +137,10 @@ class BeamCheckPage(pn.viewable.Viewer):
         self._cached_curve: tuple[tuple, engine.CapacityCurve] | None = None
         self._redraw_pending = False
         self._input_count = 0  # input events seen; the settle check compares it
+        # A layer being added: [area, depth] as typed so far (None: blank). It is
+        # not an input until both are filled, so adding a row changes nothing.
+        self._draft_layer: list | None = None
+        self._last_edited: str | None = None  # the field a person changed last, for messages
         # Widgets that show a quantity belong to one unit system for their whole
         # life (`_widget_units`): a unit switch builds new ones, so an event the
         # browser sent from an old one before it saw the switch is known to be in
@@ -219,13 +225,14 @@ class BeamCheckPage(pn.viewable.Viewer):
     def apply(self, inputs: Inputs) -> None:
         """Show and check `inputs` (values used exactly; slider spans widen to fit)."""
         self._applying = True
+        self._draft_layer = None  # a half-typed new layer belongs to the inputs being replaced
         try:
             if inputs.units != self._widget_units:
                 self._build_quantity_inputs(inputs.units, inputs)
             self._set_spans(inputs.units, inputs)
             self.unit_switch.value = inputs.units
             # One update: the check runs once, on the whole new set of values.
-            self.param.update(**{"units": inputs.units,
+            self.param.update(**{"units": inputs.units, "refusals": {},
                                  **{name: getattr(inputs, name) for name in NUMBER_FIELDS},
                                  **{name: getattr(inputs, name) for name in OTHER_FIELDS}})
         finally:
@@ -276,19 +283,15 @@ class BeamCheckPage(pn.viewable.Viewer):
                                "value")
             slider.param.watch(self._on_settled, "value_throttled")
             self.sliders[name] = slider
-        self.mu_input = pn.widgets.FloatInput(
-            label=self._label("Mu", units), value=inputs.Mu, start=0.0, step=1.0,
-            placeholder="none", sizing_mode="stretch_width", format="0[.][0000]",
-            css_classes=["rs-input-Mu"])
-        self.mu_input.param.watch(lambda event: self._on_mu_widget(units, event), "value")
-        self.entries: dict[str, pn.widgets.FloatInput] = {}
+        self.mu_input = number_box(self._label("Mu", units), inputs.Mu, "rs-input-Mu",
+                                   placeholder="none", sizing_mode="stretch_width")
+        self.mu_input.param.watch(lambda event: self._on_typed("Mu", units, event.new), "value")
+        self.entries: dict[str, pn.widgets.TextInput] = {}
         for name, label in SECTION_ENTRIES:
-            entry = pn.widgets.FloatInput(label=label, value=getattr(inputs, name), start=0.0,
-                                          placeholder="none", format="0[.][0000]",
-                                          sizing_mode="stretch_width", align="end",
-                                          stylesheets=[ENTRY_CSS],
-                                          css_classes=[f"rs-input-{name}"])
-            entry.param.watch(lambda event, name=name: self._on_entry(name, units, event.new),
+            entry = number_box(label, getattr(inputs, name), f"rs-input-{name}",
+                               placeholder="none", sizing_mode="stretch_width", align="end",
+                               stylesheets=[ENTRY_CSS])
+            entry.param.watch(lambda event, name=name: self._on_typed(name, units, event.new),
                               "value")
             self.entries[name] = entry
         self._label_entries(units)
@@ -338,18 +341,28 @@ class BeamCheckPage(pn.viewable.Viewer):
         if self._applying or event.new is None:
             return
         self._input_count += 1
+        self._last_edited = name
         # A dragged slider reports its steps with float noise (5.819999999999999);
         # 12 significant figures drop the noise and keep anything a person types.
         value = float(f"{self._in_use_units(name, float(event.new), units):.12g}")
         setattr(self, name, value)
 
-    def _on_mu_widget(self, units: str, event) -> None:
+    def _on_typed(self, name: str, units: str, text: str) -> None:
+        """Text typed into the number box of `name` (a box built for `units`)."""
         if self._applying:
             return
         self._input_count += 1
-        self.Mu = None if event.new is None else self._in_use_units("Mu", float(event.new),
-                                                                   units)
-        self._write_link()
+        self._last_edited = name
+        try:
+            typed = read_number(name, text)
+        except engine.InputError as error:
+            # Not read, so not used: the check says "Not checked" and why, and the
+            # box keeps the text until it is corrected.
+            self.refusals = {**self.refusals, name: error}
+            return
+        if name in self.refusals:
+            self.refusals = {key: error for key, error in self.refusals.items() if key != name}
+        self.set_inputs(**{name: self._in_use_units(name, typed, units)})
 
     def _on_settled(self, event) -> None:
         if not self._applying:
@@ -385,7 +398,8 @@ class BeamCheckPage(pn.viewable.Viewer):
 
     # -- params -> widgets and views -------------------------------------
 
-    @param.depends("fc", "fy", "b", "d", "As", "Mu", "units", *OTHER_FIELDS, watch=True)
+    @param.depends("fc", "fy", "b", "d", "As", "Mu", "units", "refusals", *OTHER_FIELDS,
+                   watch=True)
     def _refresh(self) -> None:
         if not on_server(pn.state.curdoc):
             self._redraw_now()  # tests, and the Pyodide worker (one change at a time): at once
@@ -430,7 +444,8 @@ class BeamCheckPage(pn.viewable.Viewer):
                    *self.entries.values(), self.spiral_switch, self.shape_switch,
                    self.flange_source]
         for row in self.layer_rows.objects[1:]:
-            widgets += [box for box in row.objects if isinstance(box, pn.widgets.FloatInput)]
+            if isinstance(row, pn.Row):
+                widgets += [box for box in row.objects if isinstance(box, pn.widgets.TextInput)]
         return widgets + self.size_bars.input_widgets()
 
     def _redraw_now(self) -> None:
@@ -447,11 +462,18 @@ class BeamCheckPage(pn.viewable.Viewer):
                     slider.param.update(start=min(slider.start, value),
                                         end=max(slider.end, value))
                 slider.value = value
-        if self.mu_input.value != self.Mu:
-            self.mu_input.value = self.Mu
+        if "Mu" not in self.refusals and not shows(self.mu_input, self.Mu):
+            self._applying = True
+            try:
+                self.mu_input.value = shown_number(self.Mu)
+            finally:
+                self._applying = False
         inputs = self.inputs()
         self._sync_section_widgets(inputs)
         self.flange_note.object = self._flange_note(inputs)
+        if self.refusals:
+            self._show_unchecked(inputs, next(iter(self.refusals.values())))
+            return
         try:
             result = engine.check(**inputs.engine_kwargs())
         except (engine.InputError, ArithmeticError) as error:
@@ -508,6 +530,12 @@ class BeamCheckPage(pn.viewable.Viewer):
         """Say plainly, at the top, that `inputs` were not checked, and why."""
         text = str(error) if isinstance(error, engine.InputError) else (
             f"the engine could not compute these inputs ({type(error).__name__})")
+        edited = self._last_edited
+        if isinstance(error, engine.InputError) and edited and edited != error.field:
+            # The engine names the field whose range the new value broke (d = 30 with
+            # h = 24 is refused as h); name the one just changed as well.
+            text += (f". This follows from the change to {edited}: change {edited} or "
+                     f"{error.field}")
         self.input_pane.object = summary.messages_html(
             [f"Not checked. {text}. The plots and tables below are not updated: they show "
              f"the last inputs that could be checked."])
@@ -579,13 +607,6 @@ class BeamCheckPage(pn.viewable.Viewer):
         default_es = engine.unit_system(units).default_es
         self.entries["es"].placeholder = f"{default_es:,.0f} (ACI 20.2.2.2)"
 
-    def _on_entry(self, name: str, units: str, value) -> None:
-        if self._applying:
-            return
-        self._input_count += 1
-        value = None if value is None else self._in_use_units(name, float(value), units)
-        self.set_inputs(**{name: value})
-
     def _on_spiral(self, event) -> None:
         if self._applying or event.new == self.spiral:
             return
@@ -620,23 +641,51 @@ class BeamCheckPage(pn.viewable.Viewer):
                 f"layer: at most {MAX_EXTRA_LAYERS} extra tension layers; this one is not "
                 f"added."])
             return
-        depths = [self.d] + [depth for _, depth in self.layers]
-        spacing = 2.5 if self.units == "us" else 63.0  # common practice: a layer 2.5 in up
-        new = (float(f"{0.5 * self.As:.4g}"), max(min(depths) - spacing, 0.5 * min(depths)))
-        self.set_inputs(layers=tuple(self.layers) + (new,), bars=None)
+        if self._draft_layer is None:
+            self._draft_layer = [None, None]
+            self.layer_rows.objects = self._layer_row_widgets(self.inputs())
 
     def _remove_layer(self, index: int) -> None:
+        if index >= len(self.layers):  # the new layer, not yet an input
+            self._draft_layer = None
+            self.refusals = {key: error for key, error in self.refusals.items()
+                             if not key.startswith(f"layer {index + 2} ")}
+            self.layer_rows.objects = self._layer_row_widgets(self.inputs())
+            return
         layers = list(self.layers)
         del layers[index]
         self.set_inputs(layers=tuple(layers), bars=None)
 
-    def _edit_layer(self, index: int, part: int, units: str, value) -> None:
-        if self._applying or value is None or index >= len(self.layers):
+    def _edit_layer(self, index: int, part: int, units: str, text: str) -> None:
+        """An extra layer's area (part 0) or depth (part 1) typed; index len(layers): the new one."""
+        if self._applying:
             return
         self._input_count += 1
+        what = "area" if part == 0 else "depth"
+        field = f"layer {index + 2} {what}"
+        self._last_edited = field
+        try:
+            typed = read_number(field, text)
+            if typed is None and index < len(self.layers):
+                raise engine.InputError(field, text, f"the layer's {what} (✕ removes the layer)")
+        except engine.InputError as error:
+            self.refusals = {**self.refusals, field: error}
+            return
+        if field in self.refusals:
+            self.refusals = {key: error for key, error in self.refusals.items() if key != field}
+        value = None if typed is None else self._in_use_units("As" if part == 0 else "d", typed,
+                                                              units)
+        if index >= len(self.layers):  # the new layer: an input once both values are in
+            draft = self._draft_layer if self._draft_layer is not None else [None, None]
+            draft[part] = value
+            self._draft_layer = draft
+            if None in draft:
+                return
+            self._draft_layer = None
+            self.set_inputs(layers=tuple(self.layers) + (tuple(draft),), bars=None)
+            return
         layers = [list(layer) for layer in self.layers]
-        layers[index][part] = self._in_use_units("As" if part == 0 else "d", float(value),
-                                                 units)
+        layers[index][part] = value
         self.set_inputs(layers=tuple(tuple(layer) for layer in layers), bars=None)
 
     def _sync_section_widgets(self, inputs: Inputs) -> None:
@@ -646,10 +695,10 @@ class BeamCheckPage(pn.viewable.Viewer):
             slab = inputs.sw is not None and inputs.ln is not None
             self.flange_source.value = "slab" if slab else "direct"
             self.flange_box.visible = inputs.shape != "rect"
-            for name in self.entries:
+            for name, entry in self.entries.items():
                 value = getattr(inputs, name)
-                if self.entries[name].value != value:
-                    self.entries[name].value = value
+                if name not in self.refusals and not shows(entry, value):
+                    entry.value = shown_number(value)
             self.spiral_switch.value = inputs.spiral
             self.entries["bf"].disabled = slab
             self.entries["sw"].visible = self.entries["ln"].visible = slab
@@ -661,7 +710,8 @@ class BeamCheckPage(pn.viewable.Viewer):
                     f'tension layers, the most the page holds.</div>')
             elif "layer_limit" in self.layer_note.object or "not added" in self.layer_note.object:
                 self.layer_note.object = ""
-            if inputs.layers != self._shown_layers or len(self.layer_rows) != len(inputs.layers) + 1:
+            rows = len(inputs.layers) + 1 + 2 * (self._draft_layer is not None)  # its row and note
+            if inputs.layers != self._shown_layers or len(self.layer_rows) != rows:
                 self._shown_layers = inputs.layers
                 self.layer_rows.objects = self._layer_row_widgets(inputs)
             else:
@@ -680,13 +730,16 @@ class BeamCheckPage(pn.viewable.Viewer):
         rows = [pn.pane.HTML(self._first_layer_text(inputs), stylesheets=[TEXT_CSS],
                              margin=(0, 10))]
         area_unit, length_unit = unit_label(inputs.units, "As"), unit_label(inputs.units, "d")
-        for index, (area, depth) in enumerate(inputs.layers):
-            area_box = pn.widgets.FloatInput(label=f"{index + 2}: area ({area_unit})", value=area,
-                                             start=0.0, format="0[.][0000]", width=110,
-                                             css_classes=[f"rs-layer-{index + 2}-area"])
-            depth_box = pn.widgets.FloatInput(label=f"depth ({length_unit})", value=depth,
-                                              start=0.0, format="0[.][0000]", width=110,
-                                              css_classes=[f"rs-layer-{index + 2}-depth"])
+        shown = list(inputs.layers)
+        if self._draft_layer is not None:
+            shown.append(tuple(self._draft_layer))
+        for index, (area, depth) in enumerate(shown):
+            new = index >= len(inputs.layers)
+            area_box = number_box(f"{index + 2}: area ({area_unit})", area,
+                                  f"rs-layer-{index + 2}-area", width=110,
+                                  placeholder="type" if new else "")
+            depth_box = number_box(f"depth ({length_unit})", depth, f"rs-layer-{index + 2}-depth",
+                                   width=110, placeholder="type" if new else "")
             units = inputs.units
             area_box.param.watch(lambda e, i=index: self._edit_layer(i, 0, units, e.new),
                                  "value")
@@ -697,6 +750,11 @@ class BeamCheckPage(pn.viewable.Viewer):
                                        css_classes=[f"rs-layer-{index + 2}-remove"])
             remove.on_click(lambda event, i=index: self._remove_layer(i))
             rows.append(pn.Row(area_box, depth_box, remove, margin=0))
+        if self._draft_layer is not None:
+            rows.append(pn.pane.HTML(
+                f'<div class="rs-note" data-q="new_layer">Layer {len(shown) + 1}: type its area '
+                f'and depth; it counts once both are in.</div>', stylesheets=[TEXT_CSS],
+                margin=(0, 10)))
         return rows
 
     def _flange_note(self, inputs: Inputs) -> str:
