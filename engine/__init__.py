@@ -12,6 +12,9 @@ from .design import (BarOption, DesignResult, DesignSection, FailedRule, design_
 from .detailing import Exposure, Support
 from .errors import InputError, RhoscopeError
 from .flange_width import effective_flange_width
+from .moment_curvature import (CurvaturePoint, DuctilitySweep, MomentCurvature, curvature_for_beam,
+                               ductility_sweep, ductility_sweep_for_beam, moment_curvature)
+from .redistribution import Redistribution
 from .section import BeamSection, Flange, Role, SteelLayer, beam_section, rectangular_beam
 from .strength_reduction import SectionClass
 from .units import SI, US, UnitSystem, convert, unit_system
@@ -20,9 +23,11 @@ __version__ = "0.1.0"
 
 __all__ = [
     "CAUTION", "Arrangement", "Bar", "BarOption", "BeamSection", "CapacityCurve", "CodeCheck",
-    "DesignResult", "DesignSection", "Exposure", "FailedRule", "Flange", "FlexuralCheck",
-    "InputError", "RhoscopeError", "Role", "SI", "SectionClass", "SteelLayer", "Support", "US",
-    "UnitSystem", "arrange", "bar", "beam_section", "capacity_curve", "check", "check_beam",
-    "convert", "curve_for_beam", "design_section", "detailing_checks", "effective_flange_width",
-    "rectangular_beam", "standard_bars", "unit_system",
+    "CurvaturePoint", "DesignResult", "DesignSection", "DuctilitySweep", "Exposure", "FailedRule",
+    "Flange", "FlexuralCheck", "InputError", "MomentCurvature", "Redistribution", "RhoscopeError",
+    "Role", "SI", "SectionClass", "SteelLayer", "Support", "US", "UnitSystem", "arrange", "bar",
+    "beam_section", "capacity_curve", "check", "check_beam", "convert", "curvature_for_beam",
+    "curve_for_beam", "design_section", "detailing_checks", "ductility_sweep",
+    "ductility_sweep_for_beam", "effective_flange_width", "moment_curvature", "rectangular_beam",
+    "standard_bars", "unit_system",
 ]

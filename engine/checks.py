@@ -12,9 +12,12 @@ import math
 from dataclasses import dataclass
 from functools import cached_property
 
+from .cracking import cracking_moment
 from .flexure import FlexuralState, analyse
 from .limits import (EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits,
                      unreachable_reason)
+from .moment_curvature import curvature_ductility
+from .redistribution import Redistribution, permitted_redistribution
 from .required_steel import required_steel_for
 from .scope import scope_warnings
 from .section_warnings import misplaced_tension_steel, section_warnings
@@ -62,6 +65,26 @@ class FlexuralCheck:
         """
         return _required_steel(self.beam, self.Mu)
 
+    @cached_property
+    def Mcr(self) -> float | None:
+        """Mcr = fr·Ig/yt of the gross section (24.2.3.5), kip·ft or kN·m; None without h."""
+        if self.beam.h is None:
+            return None
+        return quoted_moment(cracking_moment(self.beam), self.beam.system)
+
+    @cached_property
+    def ductility(self) -> float | None:
+        """Curvature ductility μφ (`engine.moment_curvature`); None without h or first yield.
+
+        Found on first use: it takes two more equilibrium solutions.
+        """
+        return curvature_ductility(self.beam)
+
+    @property
+    def redistribution(self) -> Redistribution:
+        """The moment redistribution ACI 318-19 6.6.5 permits at this section's εt."""
+        return permitted_redistribution(self.state.eps_t)
+
     @property
     def rho(self) -> float:
         return self.beam.As / (self.beam.b * self.beam.d)
@@ -97,6 +120,8 @@ class FlexuralCheck:
                         "strain": ls.strain, "stress": ls.stress, "yields": ls.yields}
                        for ls in s.layers],
             "checks": [vars(item) for item in self.checks],
+            "Mcr": self.Mcr, "ductility": self.ductility,
+            "redistribution_percent": self.redistribution.percent,
             "ok": self.ok,
             "warnings": list(self.warnings),
             "caution": CAUTION,

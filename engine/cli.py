@@ -20,7 +20,7 @@ from .errors import QUOTE_LIMIT, InputError, quoted
 EXIT_BAD_INPUT = 2
 
 # Each module under engine/commands registers its own subcommands.
-COMMAND_MODULES = ("check", "design", "report", "batch")
+COMMAND_MODULES = ("check", "curvature", "design", "report", "batch")
 
 
 class _OneLineParser(argparse.ArgumentParser):

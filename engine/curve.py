@@ -11,7 +11,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .limits import reinforcement_limits
+from .limits import ReinforcementLimits, reinforcement_limits
 from .units import quoted_moment
 from .flexure import capacity_point
 from .section import BeamSection, beam_section
@@ -48,6 +48,16 @@ class CapacityCurve:
         return {**columns, "marks": marks}
 
 
+def last_ratio(limits: ReinforcementLimits, rho_section: float) -> float:
+    """Where a curve against ρ ends: 1.5 ρb, or just past the section's own ρ.
+
+    A limit no steel area can reach (dt far below d) is infinite: the curve
+    then ends past the largest limit that is finite.
+    """
+    finite_limits = [rho for rho in (limits.rho_b, limits.rho_max, limits.rho_tc) if math.isfinite(rho)]
+    return max(_PAST_BALANCED * max(finite_limits, default=rho_section), 1.1 * rho_section)
+
+
 def capacity_curve(*, points: int = DEFAULT_POINTS, **inputs) -> CapacityCurve:
     """The curve for the section described by `inputs` (as for `check`)."""
     inputs.pop("Mu", None)
@@ -61,10 +71,7 @@ def curve_for_beam(beam: BeamSection, points: int = DEFAULT_POINTS) -> CapacityC
     rho_section = beam.As / bd
     marks = {"rho_min": limits.rho_min, "rho_tc": limits.rho_tc, "rho_max": limits.rho_max,
              "rho_b": limits.rho_b, "rho": rho_section}
-    # A limit no steel area can reach (dt far below d) is infinite: the curve
-    # then ends past the largest limit that is finite.
-    finite_limits = [rho for rho in (limits.rho_b, limits.rho_max, limits.rho_tc) if math.isfinite(rho)]
-    rho_end = max(_PAST_BALANCED * max(finite_limits, default=rho_section), 1.1 * rho_section)
+    rho_end = last_ratio(limits, rho_section)
     finite_marks = {rho for rho in marks.values() if math.isfinite(rho)}
     ratios = sorted({rho_end * i / (points - 1) for i in range(points)} | finite_marks)
     if len(beam.tension_layers) != len(beam.layers):

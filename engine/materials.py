@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import math
+
 from .units import US, UnitSystem
 
 EPS_CU = 0.003
@@ -44,3 +46,21 @@ def steel_stress(strain: float, fy: float, es: float) -> float:
     Compression strain is negative and gives a negative stress.
     """
     return max(-fy, min(fy, es * strain))
+
+
+# ACI 318-19 19.2.2.1(b): Ec = 57,000√f'c (psi) or 4,700√f'c (MPa), normalweight concrete.
+EC_COEFFICIENT = {"us": 57_000.0, "si": 4_700.0}
+
+# ACI 318-19 19.2.3.1: fr = 7.5λ√f'c (psi) or 0.62λ√f'c (MPa); λ = 1 for
+# normalweight concrete (Table 19.2.4.2), the only kind the engine takes.
+FR_COEFFICIENT = {"us": 7.5, "si": 0.62}
+
+
+def concrete_modulus(fc: float, system: UnitSystem = US) -> float:
+    """Ec of normalweight concrete, ACI 318-19 19.2.2.1(b), in psi or MPa."""
+    return EC_COEFFICIENT[system.name] * math.sqrt(fc)
+
+
+def modulus_of_rupture(fc: float, system: UnitSystem = US) -> float:
+    """fr of normalweight concrete (λ = 1), ACI 318-19 19.2.3.1, in psi or MPa."""
+    return FR_COEFFICIENT[system.name] * math.sqrt(fc)
