@@ -180,13 +180,17 @@ class BeamCheckPage(pn.viewable.Viewer):
         # The results area: the check's own tab first; other views add theirs (add_view).
         self.check_tab = pn.Column(
             self.plot_note,
-            pn.Row(pn.pane.Bokeh(self.capacity_plot.figure, sizing_mode="stretch_width",
-                                 min_width=380),
-                   pn.Column(pn.pane.Bokeh(self.sketch.figure, width=300),
-                             self.sketch_note, width=310),
-                   sizing_mode="stretch_width"),
-            pn.Row(pn.pane.Bokeh(self.sweep_plot.figure, width=320), self.details,
-                   sizing_mode="stretch_width"),
+            # FlexBoxes wrap: side by side on a wide screen, one under the other on a phone.
+            pn.FlexBox(pn.pane.Bokeh(self.capacity_plot.figure, sizing_mode="stretch_width",
+                                     css_classes=["rs-capacity-plot"], min_width=300,
+                                     styles={"flex": "1 1 380px"}),
+                       pn.Column(pn.pane.Bokeh(self.sketch.figure, width=300),
+                                 self.sketch_note, width=310),
+                       flex_wrap="wrap", sizing_mode="stretch_width"),
+            pn.FlexBox(pn.pane.Bokeh(self.sweep_plot.figure, width=320),
+                       pn.Column(self.details, sizing_mode="stretch_width", min_width=300,
+                                 styles={"flex": "1 1 320px"}),
+                       flex_wrap="wrap", sizing_mode="stretch_width"),
             sizing_mode="stretch_width")
         self.views = pn.Tabs(
             ("Check", self.check_tab),
