@@ -120,11 +120,13 @@ def test_high_strength_bars_peak_at_the_tension_controlled_limit():
 
 
 def test_options_are_best_first_and_failing_ones_carry_their_rule():
-    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=180)
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=180,
+                                   order="lightest")
     ok = [o for o in result.options if o.ok]
     failing = [o for o in result.options if not o.ok]
     assert result.options[:len(ok)] == tuple(ok)
     assert [(o.As, o.count) for o in ok] == sorted((o.As, o.count) for o in ok)
+    assert result.lightest is ok[0]
     assert failing and all(o.failed_rules for o in failing)
     # 19 #3 carry Mu but do not fit (10 + 9 in 12 in: (8.25 − 3.75)/9 = 0.5 in < 1 in).
     threes = next(o for o in failing if o.bar.designation == "#3")
@@ -193,8 +195,10 @@ def test_detailing_of_a_deep_beam_with_a_span():
 
 def test_small_moment_is_governed_by_minimum_steel_or_its_alternative():
     # Mu 20 kip·ft in 12 × 24: As,req ≈ 0.21 in², As,min = 200/60000 × 12 × d ≈ 0.86 in².
-    # 9.6.1.3 lets 4/3 × As,req ≈ 0.28 in² do; every ok option has at least that.
-    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=20)
+    # With the waiver allowed, 9.6.1.3 lets 4/3 × As,req ≈ 0.28 in² do; every ok option has
+    # at least that.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=20,
+                                   waive_as_min=True)
     for option in (o for o in result.options if o.ok):
         assert option.As >= 4 / 3 * option.As_req - 1e-12
         assert option.As >= min(option.As_min, 4 / 3 * option.As_req) - 1e-12
@@ -259,7 +263,8 @@ def _layouts(n, b, cover, ds, db, s_min, max_layers):
 
 
 def _works(inputs, layout, db, area, ds):
-    """Every rule the design applies, computed here: strength, εt, As,min via engine.check;
+    """Every rule the design applies, computed here: strength, εt, As,min via engine.check
+    (which allows 9.6.1.3; without the waiver As ≥ As,min of 9.6.1.2 is asked here);
     spacing (25.2.1), crack control (Table 24.3.2), cover (Table 20.5.1.3.1, not exposed)."""
     units, fc, fy, b, h, Mu, cover, agg, gap = (inputs[k] for k in
                                                 ("units", "fc", "fy", "b", "h", "Mu", "cover", "agg", "layer_gap"))
@@ -275,7 +280,9 @@ def _works(inputs, layout, db, area, ds):
     s_max = min(15 * 40000 / fs - 2.5 * cc, 12 * 40000 / fs) if us else \
         min(380 * 280 / fs - 2.5 * cc, 300 * 280 / fs)
     spacing = (b - 2 * cc - layout[0] * db) / (layout[0] - 1) + db
-    return r.ok and spacing <= s_max * (1 + 1e-9) and cover >= (1.5 if us else 40.0), r
+    as_min_met = inputs["waive_as_min"] or sum(n for n in layout) * area >= r.limits.As_min.value
+    return (r.ok and as_min_met and spacing <= s_max * (1 + 1e-9)
+            and cover >= (1.5 if us else 40.0)), r
 
 
 design_inputs = st.fixed_dictionaries({
@@ -290,6 +297,8 @@ design_inputs = st.fixed_dictionaries({
     "agg": st.sampled_from([0.375, 0.75, 1.0, 1.5]),
     "layers": st.sampled_from([1, 2]),
     "layer_gap": st.sampled_from([1.0, 1.25]),
+    "order": st.sampled_from(["practical", "lightest"]),
+    "waive_as_min": st.booleans(),
 })
 STIRRUP_DB = {"#3": 0.375, "#4": 0.5}
 
@@ -332,9 +341,10 @@ def test_every_ok_option_really_works_and_fits(inputs):
 def test_nothing_lighter_that_works_is_missing(inputs):
     result = engine.design_section(**inputs)
     ds = STIRRUP_DB[inputs["stirrup"]]
-    best = result.best
-    # Independent brute force over every bar, count and placement lighter than the best
-    # (or, with no best, up to the area no section could balance: 0.85 f'c b h / fy).
+    best = result.lightest
+    assert best is None or all(best.As <= o.As * 1.005 for o in result.options if o.ok)
+    # Independent brute force over every bar, count and placement lighter than the lightest
+    # (or, with none, up to the area no section could balance: 0.85 f'c b h / fy).
     ceiling = best.As - 1e-9 if best is not None else 0.85 * inputs["fc"] * inputs["b"] * inputs["h"] / inputs["fy"]
     lightest = None
     for designation, (db, area) in US_BARS.items():
@@ -444,3 +454,82 @@ def test_one_bar_in_the_upper_layer_is_tried(inputs, designation, per_layer, are
                            layers=list(layers_by_hand))
     assert checked.ok and checked.phiMn >= inputs["Mu"]
     assert checked.limits.As_min.value <= area
+
+
+def test_equal_areas_are_ranked_by_the_rule_not_by_float_noise():
+    # 16 × 30 in, f'c 4000, Grade 60, Mu 750 kip·ft. By ASTM A615 Table 1, 5 #11 = 5 × 1.56 and
+    # 13 #7 = 13 × 0.60 are both 7.80 in² (in floating point 7.800000000000001 and 7.8), and
+    # 2 #18 = 2 × 4.00 and 8 #9 = 8 × 1.00 are both 8.00 in². Equal areas: fewer bars first.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=16, h=30, Mu=750,
+                                   order="lightest")
+    labels = [o.label.split(" (")[0] for o in result.options if o.ok]
+    assert 5 * 1.56 != 13 * 0.60  # the float noise the ranking must not follow
+    assert labels.index("5 #11") < labels.index("13 #7")
+    assert labels.index("2 #18") < labels.index("8 #9")
+
+
+def test_practical_order_puts_one_layer_first_and_marks_the_lightest():
+    # 14 × 24 in, f'c 4000, Grade 60, Mu 300 kip·ft, 1.5 in cover to #3 stirrups (the CLI's
+    # defaults). Lightest: 8 #6 as 6 + 2 = 8 × 0.44 = 3.52 in² (ASTM A615), dt = 24 − 1.5 −
+    # 0.375 − 0.375 = 21.75 in, the upper layer 0.75 + 1 in higher at 20.0 in. Practical: one
+    # layer first; 3.52 × 1.10 = 3.872 in² bounds the areas counted equal to the lightest, so
+    # 3 #10 (3 × 1.27 = 3.81 in², d = 24 − 1.5 − 0.375 − 0.635 = 21.49 in) leads on fewer bars,
+    # then 6 #7 (3.60 in²); beyond the margin, 5 #8 (3.95) before 4 #9 (4.00) by area.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=14, h=24, Mu=300)
+    assert result.section.order is engine.Order.PRACTICAL
+    ok = [o for o in result.options if o.ok]
+    assert [o.layers for o in ok] == sorted(o.layers for o in ok)
+    assert [o.label for o in ok[:4]] == ["3 #10", "6 #7", "5 #8", "4 #9"]
+    assert result.best.label == "3 #10"
+    assert (result.lightest.label, result.lightest.As) == ("8 #6 (6 + 2)", pytest.approx(8 * 0.44))
+    data = result.to_dict()
+    assert data["lightest"] == result.options.index(result.lightest) and data["best"] == 0
+    assert [o["lightest"] for o in data["options"]].count(True) == 1
+    assert "Lightest that works: 8 #6 (6 + 2)" in result.verdict
+    for layers in ([(3 * 1.27, 21.49)], [(6 * 0.44, 21.75), (2 * 0.44, 20.0)]):
+        assert engine.check(units="us", fc=4000, fy=60000, b=14, h=24, Mu=300,
+                            layers=layers).ok
+    lightest_first = engine.design_section(units="us", fc=4000, fy=60000, b=14, h=24, Mu=300,
+                                           order="lightest")
+    assert lightest_first.best is lightest_first.lightest
+    assert lightest_first.best.label == "8 #6 (6 + 2)"
+    assert "It is also the lightest that works." in lightest_first.verdict
+
+
+def test_as_min_of_9_6_1_2_by_default_the_9_6_1_3_waiver_when_allowed():
+    # 12 × 24 in, f'c 4000, Grade 60, Mu 15 kip·ft, 1.5 in cover to #3 stirrups. 9.6.1.2:
+    # As,min = max(3√4000 = 189.7, 200)/60000 · 12 · d = 0.04 d in²; with #3 bars in one layer
+    # d = 24 − 1.5 − 0.375 − 0.1875 = 21.9375 in, As,min = 0.8775 in², while 2 #3 = 0.22 in²
+    # (A615) carry Mu (As,req ≈ 0.153 in², 4/3 of it 0.204 in²). By default no option is below
+    # As,min at its own d; the lightest is 2 #6 = 0.88 in² ≥ 0.04 × 21.75 = 0.870 in².
+    strict = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=15)
+    assert strict.section.waive_as_min is False
+    for option in (o for o in strict.options if o.ok):
+        assert option.As >= 200 / 60000 * 12 * option.d * (1 - 1e-12), option.label
+        assert not option.min_steel_waived
+    assert strict.lightest.label == "2 #6"
+    assert "9.6.1.3" not in strict.verdict
+    waived = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=15,
+                                   waive_as_min=True, order="lightest")
+    two_3 = waived.best
+    assert (two_3.label, two_3.min_steel_waived) == ("2 #3", True)
+    assert two_3.As >= 4 / 3 * two_3.As_req
+    assert "9.6.1.3" in waived.verdict
+    assert waived.to_dict()["options"][0]["min_steel_waived"] is True
+    # The same bars judged by the strict design: 9.6.1.2 fails, and the waiver is named as refused.
+    checks = {c.clause: c for c in strict.detailing(two_3)}
+    assert "9.6.1.3" not in checks and not checks["9.6.1.2"].passed
+    assert "does not allow the waiver" in checks["9.6.1.2"].detail
+    assert any(c.clause == "9.6.1.3" and c.passed for c in waived.detailing(two_3))
+
+
+@pytest.mark.parametrize("kwargs, field", [
+    ({"order": "cheapest"}, "order"),
+    ({"order": 2}, "order"),
+    ({"waive_as_min": "yes"}, "waive_as_min"),
+    ({"waive_as_min": 1}, "waive_as_min"),
+], ids=["order-word", "order-number", "waiver-text", "waiver-int"])
+def test_bad_order_or_waiver_names_the_field(kwargs, field):
+    with pytest.raises(InputError, match=rf"^{field}: ") as caught:
+        engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=180, **kwargs)
+    assert caught.value.field == field
