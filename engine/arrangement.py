@@ -4,9 +4,10 @@ Bars lie in one or two horizontal layers inside the stirrup, the bottom
 layer at clear cover plus stirrup diameter from the tension face. Bars of an
 upper layer sit directly above bars of the bottom layer, a clear distance
 apart (ACI 318-19 25.2.2), so an upper layer never holds more bars than the
-bottom one; it may hold a single bar (25.2.2 sets no least number). d is measured to the centroid of the bars actually placed, dt
-to the centre of the bottom layer; each layer keeps its own depth, so the
-check can give each its own strain (22.2.1.2).
+bottom one; it may hold a single bar (25.2.2 sets no least number). d is
+measured to the centroid of the bars actually placed, dt to the centre of
+the bottom layer; each layer keeps its own depth, so the check can give each
+its own strain (22.2.1.2).
 
 Corner bars are taken to bear on the straight legs of the stirrup; the extra
 room that a stirrup bend of small radius takes from a large corner bar is

@@ -175,7 +175,7 @@ class BarOption:
 
 @dataclass(frozen=True)
 class DesignResult:
-    """The required steel, the bar options (best first) and what the design found."""
+    """The required steel, the bar options (in the order asked for) and what the design found."""
 
     section: DesignSection
     As_req: float | None  # at the best option's d and dt, or at d_deepest when none works
