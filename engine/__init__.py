@@ -7,7 +7,7 @@ from .arrangement import Arrangement, arrange
 from .bars import Bar, bar, standard_bars
 from .checks import CAUTION, CodeCheck, FlexuralCheck, check, check_beam
 from .curve import CapacityCurve, capacity_curve, curve_for_beam
-from .design import (BarOption, DesignResult, DesignSection, FailedRule, design_section,
+from .design import (BarOption, DesignResult, DesignSection, FailedRule, Order, design_section,
                      detailing_checks)
 from .detailing import Exposure, Support
 from .errors import InputError, RhoscopeError
@@ -24,7 +24,7 @@ __version__ = "0.1.0"
 __all__ = [
     "CAUTION", "Arrangement", "Bar", "BarOption", "BeamSection", "CapacityCurve", "CodeCheck",
     "CurvaturePoint", "DesignResult", "DesignSection", "DuctilitySweep", "Exposure", "FailedRule",
-    "Flange", "FlexuralCheck", "InputError", "MomentCurvature", "Redistribution", "RhoscopeError",
+    "Flange", "FlexuralCheck", "InputError", "MomentCurvature", "Order", "Redistribution", "RhoscopeError",
     "Role", "SI", "SectionClass", "SteelLayer", "Support", "US", "UnitSystem", "arrange", "bar",
     "beam_section", "capacity_curve", "check", "check_beam", "convert", "curvature_for_beam",
     "curve_for_beam", "design_section", "detailing_checks", "ductility_sweep",

@@ -4,9 +4,10 @@ Bars lie in one or two horizontal layers inside the stirrup, the bottom
 layer at clear cover plus stirrup diameter from the tension face. Bars of an
 upper layer sit directly above bars of the bottom layer, a clear distance
 apart (ACI 318-19 25.2.2), so an upper layer never holds more bars than the
-bottom one. d is measured to the centroid of the bars actually placed, dt
-to the centre of the bottom layer; each layer keeps its own depth, so the
-check can give each its own strain (22.2.1.2).
+bottom one; it may hold a single bar (25.2.2 sets no least number). d is
+measured to the centroid of the bars actually placed, dt to the centre of
+the bottom layer; each layer keeps its own depth, so the check can give each
+its own strain (22.2.1.2).
 
 Corner bars are taken to bear on the straight legs of the stirrup; the extra
 room that a stirrup bend of small radius takes from a large corner bar is
@@ -24,6 +25,10 @@ from .bars import Bar
 MIN_BARS_PER_LAYER = 2
 """A bar in each bottom corner of the stirrup (common practice, and each stirrup
 bend must enclose a longitudinal bar, ACI 318-19 25.7.1.3)."""
+
+MIN_BARS_UPPER_LAYER = 1
+"""An upper layer needs no corner bars: ACI 318-19 25.2.2 asks only that its bars sit
+directly above bars of the bottom layer, at least 1 in (25 mm) clear of them."""
 
 # Spacings computed at a rule's edge can land a few ulps short of it.
 _FIT_TOLERANCE = 1e-9
@@ -107,10 +112,10 @@ def arrange(*, b: float, h: float, cover: float, stirrup: Bar, bar: Bar,
 def distributions(count: int, fits: int, max_layers: int) -> tuple[tuple[int, ...], ...]:
     """Ways to place `count` bars when at most `fits` go in one layer.
 
-    One layer when the bars fit in it; otherwise two layers, the bottom one
-    as full as it may be first, the upper one holding at least 2 and no more
-    than the bottom (bars directly above bars, 25.2.2). Empty when no such
-    placement exists.
+    One layer when the bars fit in it; otherwise every split between two
+    layers, the fullest bottom layer first: the bottom holding at least 2
+    (its corners) and at least as many as the upper one (bars directly above
+    bars, 25.2.2), the upper at least 1. Empty when no such placement exists.
     """
     if count < MIN_BARS_PER_LAYER:
         return ()
@@ -118,15 +123,15 @@ def distributions(count: int, fits: int, max_layers: int) -> tuple[tuple[int, ..
         return ((count,),)
     if max_layers < 2:
         return ()
-    top_bottom = min(fits, count - MIN_BARS_PER_LAYER)
-    return tuple((bottom, count - bottom) for bottom in range(top_bottom, (count + 1) // 2 - 1, -1)
-                 if bottom >= count - bottom)
+    fullest = min(fits, count - MIN_BARS_UPPER_LAYER)
+    least = max(MIN_BARS_PER_LAYER, (count + 1) // 2)
+    return tuple((bottom, count - bottom) for bottom in range(fullest, least - 1, -1))
 
 
 def nearest_distribution(count: int, max_layers: int) -> tuple[int, ...]:
     """The placement that needs the least width, for reporting an arrangement that does not fit."""
     count = max(count, MIN_BARS_PER_LAYER)
-    if max_layers < 2 or count < 2 * MIN_BARS_PER_LAYER:
+    if max_layers < 2 or count <= MIN_BARS_PER_LAYER:
         return (count,)
     return ((count + 1) // 2, count // 2)
 

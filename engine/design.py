@@ -9,9 +9,17 @@ returns a `DesignResult`:
   singly reinforced section of these dimensions reaches Mu within that limit,
   with the largest φMn it does reach and the usual ways out;
 * for each standard bar size, the fewest bars that meet every rule, in one
-  layer or, when they do not fit in one, in two (25.2.2), each with its real
-  d and dt, φMn and εt from the engine's check, and the rules it breaks;
+  layer or, when they do not fit in one, in two (25.2.2; every split is
+  tried, the upper layer may hold a single bar), each with its real d and
+  dt, φMn and εt from the engine's check, and the rules it breaks;
+* the options ranked in the order asked for (`Order`: "practical", the
+  default, or "lightest"), with the lightest passing one always marked
+  (`DesignResult.lightest`);
 * the detailing checks of any option (`DesignResult.detailing`).
+
+As,min is that of 9.6.1.2 unless the design allows the 9.6.1.3 waiver
+(As ≥ 4/3 As,req); an option that passes only by the waiver says so
+(`BarOption.min_steel_waived`).
 
 Inputs and results are in the base units of the chosen system (psi, in, in²
 or MPa, mm, mm²), moments in kip·ft or kN·m.
@@ -21,6 +29,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, replace
+from enum import Enum
 
 from .arrangement import (Arrangement, arrange, bars_that_fit, clear_spacing, distributions,
                           fits_within, nearest_distribution, side_cover)
@@ -44,6 +53,24 @@ from .validation import hard_maximum, in_range
 _MAX_LAYERS = 2
 _MAX_BARS = 400  # a search bound far past any beam's bar count
 _GOLDEN_STEPS = 60
+
+AREA_TIE = 0.005
+"""Steel areas within this relative difference rank as equal (0.5 %): bar areas are
+tabulated to two or three figures (ASTM A615/A615M Table 1), so 13 #7 (7.80 in²) and
+5 #11 (7.80 in²) differ only by float noise, and the ranking rule, not the noise,
+must decide between them."""
+
+PRACTICAL_MARGIN = 0.10
+"""In the practical order, passing options within 10 % of the lightest area rank as
+equal in area, so fewer bars decide among them (common practice: a little more steel
+is worth fewer bars to place)."""
+
+
+class Order(str, Enum):
+    """How the passing options are ranked."""
+
+    PRACTICAL = "practical"  # fewer layers, then fewer bars among areas near the lightest, then area
+    LIGHTEST = "lightest"  # least steel area, then fewer bars, then fewer layers
 
 
 @dataclass(frozen=True)
@@ -75,6 +102,8 @@ class DesignSection:
     span: float | None
     support: Support | None
     bars: tuple[Bar, ...]  # the sizes to try
+    order: Order = Order.PRACTICAL
+    waive_as_min: bool = False  # allow 9.6.1.3: As ≥ 4/3 As,req in place of As,min
 
     def beam(self, layers: tuple[tuple[float, float], ...]) -> BeamSection:
         """The section with tension `layers` of (area, depth), the deepest giving dt."""
@@ -106,6 +135,7 @@ class BarOption:
     min_clear_spacing: float  # 25.2.1
     max_bar_spacing: float  # 24.3.2
     failed_rules: tuple[FailedRule, ...]
+    min_steel_waived: bool = False  # As < As,min, accepted by 9.6.1.3 (As ≥ 4/3 As,req)
 
     bar = property(lambda self: self.arrangement.bar)
     count = property(lambda self: self.arrangement.count)
@@ -138,13 +168,14 @@ class BarOption:
             "clear_spacing": self.clear_spacing, "min_clear_spacing": self.min_clear_spacing,
             "bar_spacing": self.bar_spacing, "max_bar_spacing": self.max_bar_spacing,
             "As_min": self.As_min, "As_req": self.As_req, "ok": self.ok,
+            "min_steel_waived": self.min_steel_waived,
             "failed_rules": [vars(rule) for rule in self.failed_rules],
         }
 
 
 @dataclass(frozen=True)
 class DesignResult:
-    """The required steel, the bar options (best first) and what the design found."""
+    """The required steel, the bar options (in the order asked for) and what the design found."""
 
     section: DesignSection
     As_req: float | None  # at the best option's d and dt, or at d_deepest when none works
@@ -154,13 +185,19 @@ class DesignResult:
     feasible: bool  # Mu ≤ phiMn_max
     verdict: str
     remedies: tuple[str, ...]
-    options: tuple[BarOption, ...]
+    options: tuple[BarOption, ...]  # ranked in `section.order`, passing ones first
     warnings: tuple[str, ...]
+    lightest: BarOption | None = None  # the passing option of least As (ties: fewer bars)
 
     @property
     def best(self) -> BarOption | None:
         """The first option that meets every rule, or None."""
         return next((option for option in self.options if option.ok), None)
+
+    @property
+    def lightest_index(self) -> int | None:
+        """The position of `lightest` in `options`, or None."""
+        return None if self.lightest is None else self.options.index(self.lightest)
 
     def detailing(self, option: BarOption) -> tuple[CodeCheck, ...]:
         """Every check of `option`: strength and steel limits, then detailing."""
@@ -176,12 +213,15 @@ class DesignResult:
                 "layers": s.max_layers, "layer_gap": s.layer_gap, "exposure": s.exposure.value,
                 "fs": s.fs, "span": s.span, "support": None if s.support is None else s.support.value,
                 "bars": [b.designation for b in s.bars],
+                "order": s.order.value, "waive_as_min": s.waive_as_min,
             },
             "As_req": self.As_req, "As_req_d": self.As_req_d, "d_deepest": self.d_deepest,
             "phiMn_max": self.phiMn_max, "feasible": self.feasible, "verdict": self.verdict,
             "remedies": list(self.remedies),
-            "options": [option.to_dict() for option in self.options],
+            "options": [dict(option.to_dict(), lightest=option is self.lightest)
+                        for option in self.options],
             "best": None if best is None else self.options.index(best),
+            "lightest": self.lightest_index,
             "detailing": None if best is None else [vars(c) for c in self.detailing(best)],
             "warnings": list(self.warnings),
             "caution": CAUTION,
@@ -207,6 +247,8 @@ def design_section(
     span: object | None = None,
     support: object | None = None,
     bars: object | None = None,
+    order: object = Order.PRACTICAL.value,
+    waive_as_min: object = False,
 ) -> DesignResult:
     """Size the tension steel of a b × h section for Mu and list bar arrangements.
 
@@ -216,13 +258,15 @@ def design_section(
     (default 3/4 in or 19 mm), `layers` the most layers allowed (1 or 2),
     `layer_gap` the clear distance between layers (default the 25.2.2 minimum),
     `fs` the service stress for 24.3.2 (default 2/3 fy), `span` and `support`
-    (both or neither) the Table 9.3.1.1 guidance. Raises `InputError` naming
-    the first bad field.
+    (both or neither) the Table 9.3.1.1 guidance, `order` the ranking
+    ("practical" or "lightest", see `Order`), `waive_as_min` whether 9.6.1.3
+    may stand in for As,min of 9.6.1.2 (default False: As,min always). Raises
+    `InputError` naming the first bad field.
     """
     return design(_validated(units=units, fc=fc, fy=fy, b=b, h=h, Mu=Mu, cover=cover,
                              stirrup=stirrup, agg=agg, layers=layers, layer_gap=layer_gap,
                              exposure=exposure, fs=fs, es=es, span=span, support=support,
-                             bars=bars))
+                             bars=bars, order=order, waive_as_min=waive_as_min))
 
 
 def design(section: DesignSection) -> DesignResult:
@@ -239,8 +283,9 @@ def design(section: DesignSection) -> DesignResult:
 
     options = [_best_for_bar(section, bar, Mu_base) for bar in section.bars]
     options = [_with_required_steel(section, option, Mu_base) for option in options]
-    options.sort(key=lambda o: (not o.ok, len(o.failed_rules) if not o.ok else 0,
-                                o.As, o.count, o.layers))
+    lightest = next(iter(ranked(options, Order.LIGHTEST)), None)
+    options = ranked(options, section.order)
+    lightest = lightest if lightest is not None and lightest.ok else None
     best = next((option for option in options if option.ok), None)
     if best is not None:
         As_req, As_req_d = best.As_req, best.d
@@ -248,11 +293,56 @@ def design(section: DesignSection) -> DesignResult:
         As_req = required_steel(deep_beam, Mu_base) if feasible else None
         As_req_d = d_deepest
 
-    verdict, remedies = _verdict(section, feasible, phiMn_max, d_deepest, best, As_req, As_req_d)
+    verdict, remedies = _verdict(section, feasible, phiMn_max, d_deepest, best, lightest,
+                                 As_req, As_req_d)
     warnings = _warnings(section, best)
     return DesignResult(section=section, As_req=As_req, As_req_d=As_req_d, d_deepest=d_deepest,
                         phiMn_max=phiMn_max, feasible=feasible, verdict=verdict,
-                        remedies=remedies, options=tuple(options), warnings=warnings)
+                        remedies=remedies, options=options, warnings=warnings,
+                        lightest=lightest)
+
+
+def ranked(options: list[BarOption] | tuple[BarOption, ...], order: Order
+           ) -> tuple[BarOption, ...]:
+    """`options` in `order`: those that meet every rule first, then the rest by fewest rules broken.
+
+    Areas within `AREA_TIE` of each other count as equal, so that the rule
+    decides and not float noise. "lightest": least As, then fewer bars, then
+    fewer layers. "practical": fewer layers, then, among areas within
+    `PRACTICAL_MARGIN` of the lightest passing As, fewer bars; beyond that
+    margin least As, then fewer bars. Failing options are always in the
+    "lightest" order.
+    """
+    tier = _area_tiers([option.As for option in options])
+    passing = [option.As for option in options if option.ok]
+    near = min(passing) * (1 + PRACTICAL_MARGIN) * (1 + AREA_TIE) if passing else 0.0
+
+    def key(index: int) -> tuple:
+        option = options[index]
+        if not option.ok:
+            return (1, len(option.failed_rules), tier[index], option.count, option.layers, 0)
+        if order is Order.LIGHTEST:
+            return (0, 0, tier[index], option.count, option.layers, 0)
+        beyond = option.As > near
+        return (0, option.layers, beyond, tier[index] if beyond else 0, option.count,
+                tier[index])
+
+    return tuple(options[i] for i in sorted(range(len(options)), key=key))
+
+
+def _area_tiers(areas: list[float]) -> list[int]:
+    """A rank for each area; areas within `AREA_TIE` of the tier's least share one.
+
+    Tiers are formed from the least area up, so equality is transitive within
+    the list and the ranking stays a total order.
+    """
+    tiers = [0] * len(areas)
+    tier, start = -1, -math.inf
+    for index in sorted(range(len(areas)), key=areas.__getitem__):
+        if areas[index] > start * (1 + AREA_TIE):
+            tier, start = tier + 1, areas[index]
+        tiers[index] = tier
+    return tiers
 
 
 def largest_design_moment(beam: BeamSection) -> tuple[float, float]:
@@ -290,12 +380,26 @@ def largest_design_moment(beam: BeamSection) -> tuple[float, float]:
 
 def detailing_checks(section: DesignSection, option: BarOption) -> tuple[CodeCheck, ...]:
     """The engine's check of `option` (9.6.1.2/9.6.1.3, 9.3.3.1, 9.5.1.1), then its
-    detailing (25.2.1, 25.2.2, 20.5.1.3.1, 24.3.2) and the section's (9.7.2.3, Table 9.3.1.1)."""
+    detailing (25.2.1, 25.2.2, 20.5.1.3.1, 24.3.2) and the section's (9.7.2.3, Table 9.3.1.1).
+
+    Where the design does not allow the 9.6.1.3 waiver, a check that passed
+    only by it is shown as the 9.6.1.2 failure it is in this design."""
     arrangement = option.arrangement
     result = check_beam(section.arranged_beam(arrangement), section.Mu)
-    return (result.checks + _arrangement_checks(section, arrangement, option.min_clear_spacing,
-                                                option.max_bar_spacing)
+    checks = tuple(check if section.waive_as_min or check.clause != "9.6.1.3"
+                   else _waiver_refused(section, option) for check in result.checks)
+    return (checks + _arrangement_checks(section, arrangement, option.min_clear_spacing,
+                                         option.max_bar_spacing)
             + _section_checks(section))
+
+
+def _waiver_refused(section: DesignSection, option: BarOption) -> CodeCheck:
+    """9.6.1.2 failed: As < As,min, and the design does not allow 9.6.1.3 to waive it."""
+    area = section.system.area
+    return CodeCheck("9.6.1.2", "As ≥ As,min", False,
+                     f"As = {option.As:.4g} {area} < As,min = {option.As_min:.4g} {area}; "
+                     f"9.6.1.3 (As ≥ 4/3 As,req) would waive it, but this design does not "
+                     f"allow the waiver")
 
 
 def _best_for_bar(section: DesignSection, bar: Bar, Mu_base: float) -> BarOption:
@@ -309,7 +413,7 @@ def _best_for_bar(section: DesignSection, bar: Bar, Mu_base: float) -> BarOption
     The work is bounded by what could pass. Once the nearest miss is settled
     (the first count strong enough), counts that no rule lets pass are
     skipped: fewer bars than crack control (24.3.2) or As,min (9.6.1.2, or
-    4/3 As,req by 9.6.1.3) need, more than fit (25.2.1, 25.2.2), and every
+    4/3 As,req by 9.6.1.3 where the design allows it) need, more than fit (25.2.1, 25.2.2), and every
     count when the cover (Table 20.5.1.3.1) fails for this bar. Layouts that
     a count-free rule already fails are not analysed.
     """
@@ -414,8 +518,9 @@ def _fewest_that_could_pass(section: DesignSection, bar: Bar, fits: int, s_max: 
 
     Crack control (24.3.2) needs bottom-layer spacing (inside − db)/(n − 1) ≤ s;
     As,min (9.6.1.2) is least at the shallowest d any arrangement has (the upper
-    layer's depth), and 9.6.1.3's 4/3 As,req is at least 4/3 of As,req at the
-    deepest, one-layer depth. Both are lower bounds, so no passing count is lost.
+    layer's depth), and, where the design allows 9.6.1.3, its 4/3 As,req is at
+    least 4/3 of As,req at the deepest, one-layer depth. Both are lower bounds,
+    so no passing count is lost.
     """
     if s_max <= 0:
         return None
@@ -423,7 +528,8 @@ def _fewest_that_could_pass(section: DesignSection, bar: Bar, fits: int, s_max: 
     crack = max(2, math.ceil(1 + (inside - bar.db) / (s_max * (1 + 1e-9))) - 1)
     if crack > fits:
         return None
-    steel = math.floor(min(As_min_low, 4.0 / 3.0 * As_lower) / bar.area)
+    least = min(As_min_low, 4.0 / 3.0 * As_lower) if section.waive_as_min else As_min_low
+    steel = math.floor(least / bar.area)
     return max(crack, steel, 2)
 
 
@@ -465,18 +571,24 @@ def _evaluate(section: DesignSection, bar: Bar, layout: tuple[int, ...], s_min: 
                                            f"tension steel for a beam"))
     As_min = result.limits.As_min.value
     As_req = None
+    waived = False
     if arrangement.As < As_min:
-        As_req = required_steel(beam, section.Mu * u.moment_to_base)
-        if not minimum_steel_satisfied(arrangement.As, As_min, As_req):
-            rules.append(FailedRule("9.6.1.2", f"As = {arrangement.As:.4g} {u.area} is below "
-                                               f"As,min = {As_min:.4g} {u.area}, and below 4/3 "
-                                               f"of the As required (9.6.1.3)"))
+        below = f"As = {arrangement.As:.4g} {u.area} is below As,min = {As_min:.4g} {u.area}"
+        if section.waive_as_min:
+            As_req = required_steel(beam, section.Mu * u.moment_to_base)
+            waived = minimum_steel_satisfied(arrangement.As, As_min, As_req)
+            if not waived:
+                rules.append(FailedRule("9.6.1.2", f"{below}, and below 4/3 of the As "
+                                                   f"required (9.6.1.3)"))
+        else:
+            rules.append(FailedRule("9.6.1.2", f"{below} (the 9.6.1.3 waiver, As ≥ 4/3 As,req, "
+                                               f"is not allowed in this design)"))
     rules += [FailedRule(check.clause, check.detail) for check in
               _arrangement_checks(section, arrangement, s_min, s_max) if not check.passed]
     return BarOption(arrangement=arrangement, phiMn=result.phiMn, phi=state.phi,
                      eps_t=state.eps_t, section_class=state.section_class.value, As_min=As_min,
                      As_req=As_req, min_clear_spacing=s_min, max_bar_spacing=s_max,
-                     failed_rules=tuple(rules))
+                     failed_rules=tuple(rules), min_steel_waived=waived and not rules)
 
 
 def _with_required_steel(section: DesignSection, option: BarOption, Mu_base: float) -> BarOption:
@@ -552,8 +664,8 @@ def _section_checks(section: DesignSection) -> tuple[CodeCheck, ...]:
 
 
 def _verdict(section: DesignSection, feasible: bool, phiMn_max: float, d_deepest: float,
-             best: BarOption | None, As_req: float | None, As_req_d: float
-             ) -> tuple[str, tuple[str, ...]]:
+             best: BarOption | None, lightest: BarOption | None, As_req: float | None,
+             As_req_d: float) -> tuple[str, tuple[str, ...]]:
     u = section.system
     if feasible:
         text = (f"A singly reinforced {section.b:g} × {section.h:g} {u.length} section carries "
@@ -561,10 +673,14 @@ def _verdict(section: DesignSection, feasible: bool, phiMn_max: float, d_deepest
                     f"As,req = {As_req:.4g} {u.area} at d = {As_req_d:.4g} {u.length}."
                     if As_req is not None else
                     "no As,req was found within the section's own area (b·h)."))
-        if best is None:
+        if best is None or lightest is None:
             text += " No bar arrangement tried meets every rule; see each option's failed rules."
         else:
-            text += f" Lightest arrangement that works: {best.label}, As = {best.As:.4g} {u.area}."
+            text += (f" First in the {section.order.value} order: {best.label}, As = "
+                     f"{best.As:.4g} {u.area}{_waiver_note(best)}.")
+            text += (" It is also the lightest that works." if best is lightest else
+                     f" Lightest that works: {lightest.label}, As = {lightest.As:.4g} "
+                     f"{u.area}{_waiver_note(lightest)}.")
         return text, ()
     ratio = section.Mu / phiMn_max
     d_needed = d_deepest * math.sqrt(ratio)
@@ -584,6 +700,11 @@ def _verdict(section: DesignSection, feasible: bool, phiMn_max: float, d_deepest
         "compression reinforcement (a doubly reinforced section; not yet designed here)",
     )
     return text, remedies
+
+
+def _waiver_note(option: BarOption) -> str:
+    return ", below As,min by the 9.6.1.3 waiver (As ≥ 4/3 As,req)" if option.min_steel_waived \
+        else ""
 
 
 def _rounded_up(length: float, system: UnitSystem) -> str:
@@ -635,7 +756,7 @@ def _one_of(field: str, value: object, kind: type) -> object:
 
 
 def _validated(*, units, fc, fy, b, h, Mu, cover, stirrup, agg, layers, layer_gap, exposure, fs,
-               es, span, support, bars) -> DesignSection:
+               es, span, support, bars, order, waive_as_min) -> DesignSection:
     system = unit_system(units)
     stress, length = system.stress, system.length
     max_length = hard_maximum(system, "length")
@@ -679,6 +800,10 @@ def _validated(*, units, fc, fy, b, h, Mu, cover, stirrup, agg, layers, layer_ga
                          f"{'support' if missing == 'span' else 'span'} is given (Table 9.3.1.1)")
     span_value = None if span is None else in_range("span", span, length, max_length)
     support_value = None if support is None else _one_of("support", support, Support)
+    order_value = _one_of("order", order, Order)
+    if not isinstance(waive_as_min, bool):
+        raise InputError("waive_as_min", waive_as_min, "true or false",
+                         why="whether 9.6.1.3 may stand in for As,min of 9.6.1.2")
     inside = 2 * side_cover(cover_value, stirrup_bar)
     if b_value <= inside:
         raise InputError("b", b, f"more than 2 × (cover + stirrup) = {inside:g} {length}",
@@ -691,4 +816,5 @@ def _validated(*, units, fc, fy, b, h, Mu, cover, stirrup, agg, layers, layer_ga
                          h=h_value, Mu=Mu_value, cover=cover_value, stirrup=stirrup_bar,
                          aggregate=agg_value, max_layers=int(layers), layer_gap=gap_value,
                          exposure=exposure_value, fs=fs_value, span=span_value,
-                         support=support_value, bars=tried)
+                         support=support_value, bars=tried, order=order_value,
+                         waive_as_min=waive_as_min)

@@ -15,7 +15,9 @@ Page keys describe how the page got those inputs and what else it shows;
 they never change the check itself: `shape` (rect, T, L), `sw` and `ln`
 (the slab geometry bf was found from, ACI 318-19 Table 6.3.2.1), and the
 bar-sizing inputs `cover`, `stirrup`, `agg`, `nlayers` (1 or 2), `span`,
-`support` and `bars` (the chosen arrangement, BAR:COUNTS such as `#8:4,2`).
+`support`, `order` (practical or lightest; absent: practical), `waiver` (1:
+the 9.6.1.3 waiver of As,min allowed; absent: not) and `bars` (the chosen
+arrangement, BAR:COUNTS such as `#8:4,2`).
 
 Example: ``?units=us&fc=4000&fy=60000&b=12&d=21.5&As=3.16&Mu=180``.
 """
@@ -29,6 +31,7 @@ from dataclasses import dataclass, field
 from numbers import Real
 from urllib.parse import parse_qsl, urlencode, urlsplit, urlunsplit
 
+from .design import Order
 from .detailing import Support
 from .errors import InputError
 from .units import unit_system
@@ -38,7 +41,8 @@ NUMBER_KEYS = ("fc", "fy", "b", "d", "As", "Mu", "dt", "es", "h", "bf", "hf", "a
 CHECK_KEYS = ("units",) + NUMBER_KEYS + ("layers", "spiral")
 """The `engine.check` keywords a link carries (`layers` travels as repeated `layer`)."""
 PAGE_NUMBER_KEYS = ("sw", "ln", "cover", "agg", "span")
-PAGE_KEYS = ("shape", "sw", "ln", "cover", "stirrup", "agg", "nlayers", "span", "support", "bars")
+PAGE_KEYS = ("shape", "sw", "ln", "cover", "stirrup", "agg", "nlayers", "span", "support", "order",
+             "waiver", "bars")
 KEYS = ("units",) + NUMBER_KEYS + ("layer", "spiral") + PAGE_KEYS
 """Every key of the query, in the order `share_query` writes them."""
 SHAPES = ("rect", "T", "L")
@@ -215,7 +219,7 @@ def _value(key: str, text: str) -> object:
     if key == "units":
         return stripped.lower() if stripped.lower() in ("us", "si") else _refuse(
             key, text, "'us' or 'si'")
-    if key == "spiral":
+    if key in ("spiral", "waiver"):
         lowered = stripped.lower()
         if lowered not in _TRUE + _FALSE:
             _refuse(key, text, "1 or 0 (true or false)")
@@ -230,6 +234,11 @@ def _value(key: str, text: str) -> object:
         lowered = stripped.lower()
         if lowered not in [s.value for s in Support]:
             _refuse(key, text, "one of " + ", ".join(s.value for s in Support))
+        return lowered
+    if key == "order":
+        lowered = stripped.lower()
+        if lowered not in [o.value for o in Order]:
+            _refuse(key, text, "one of " + ", ".join(o.value for o in Order))
         return lowered
     if key == "nlayers":
         return int(stripped) if stripped in ("1", "2") else _refuse(key, text, "1 or 2")
@@ -273,7 +282,11 @@ def _page_text(key: str, value: object) -> str:
         if value not in (1, 2) or isinstance(value, bool):
             raise InputError(key, value, "1 or 2")
         return str(int(value))
-    text = str(value.value if isinstance(value, Support) else value)
+    if key == "waiver":
+        if not isinstance(value, bool):
+            raise InputError(key, value, "true or false")
+        return "1" if value else "0"
+    text = str(value.value if isinstance(value, (Support, Order)) else value)
     _value(key, text)  # refuse what could not be read back
     return text
 

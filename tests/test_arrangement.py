@@ -61,13 +61,16 @@ def test_bars_that_fit_at_the_edge_of_25_2_1():
 @pytest.mark.parametrize("count, fits, max_layers, expected", [
     (3, 5, 2, ((3,),)),            # fits in one layer: one layer only
     (5, 5, 2, ((5,),)),            # exactly fills the layer
-    (6, 4, 2, ((4, 2), (3, 3))),   # fullest bottom layer first; upper ≤ bottom, ≥ 2
-    (5, 4, 2, ((3, 2),)),          # 4 + 1 is not allowed: a lone upper bar has no pair
-    (3, 2, 2, ()),                 # 2 + 1 is not allowed either
+    (6, 4, 2, ((4, 2), (3, 3))),   # every split, fullest bottom layer first; upper ≤ bottom
+    (5, 4, 2, ((4, 1), (3, 2))),   # one bar above is allowed (25.2.2 sets no least number)
+    (3, 2, 2, ((2, 1),)),          # 2 + 1: corner bars below, one bar above
+    (7, 6, 2, ((6, 1), (5, 2), (4, 3))),  # every split that fits, not only the fullest
     (9, 4, 2, ()),                 # 4 + 5 puts more bars above than below
     (6, 4, 1, ()),                 # one layer allowed and it is full
     (1, 5, 2, ()),                 # a bar in each stirrup corner: at least 2
-], ids=["one", "full", "two", "no-lone-top", "none-3", "too-many", "one-layer-only", "single"])
+    (3, 1, 2, ()),                 # the bottom layer needs its 2 corner bars
+], ids=["one", "full", "two", "lone-top", "two-plus-one", "every-split", "too-many",
+        "one-layer-only", "single", "no-corners"])
 def test_distributions(count, fits, max_layers, expected):
     assert distributions(count, fits, max_layers) == expected
 
@@ -75,4 +78,5 @@ def test_distributions(count, fits, max_layers, expected):
 def test_nearest_distribution_halves_the_bars():
     assert nearest_distribution(9, 2) == (5, 4)
     assert nearest_distribution(9, 1) == (9,)
-    assert nearest_distribution(3, 2) == (3,)
+    assert nearest_distribution(3, 2) == (2, 1)
+    assert nearest_distribution(2, 2) == (2,)

@@ -124,3 +124,44 @@ def test_in_process_main_returns_2(capsys):
     assert main(["design", *SECTION, "--stirrup", "#7"]) == 2
     err = capsys.readouterr().err
     assert err.startswith("python -m engine design: stirrup: ")
+
+
+def test_order_and_waiver_flags_are_read_and_named(run_cli):
+    # 12 × 24 in, Mu 15 kip·ft: 2 #3 (0.22 in², A615) carry Mu but are below As,min of 9.6.1.2
+    # (200/60000 · 12 · 21.9375 = 0.8775 in², by hand); only the 9.6.1.3 waiver lets them pass.
+    base = ["design", "--units", "us", "--fc", "4000", "--fy", "60000", "--b", "12", "--h", "24",
+            "--mu", "15"]
+    strict = strict_json(run_cli(*base, "--json").stdout)
+    assert (strict["inputs"]["order"], strict["inputs"]["waive_as_min"]) == ("practical", False)
+    assert not any(o["min_steel_waived"] for o in strict["options"])
+    waived = run_cli(*base, "--order", "lightest", "--waive-as-min", "--json")
+    assert waived.returncode == 0, waived.stderr
+    out = strict_json(waived.stdout)
+    assert (out["inputs"]["order"], out["inputs"]["waive_as_min"]) == ("lightest", True)
+    first = out["options"][0]
+    assert (first["bar"], first["count"], first["min_steel_waived"]) == ("#3", 2, True)
+    assert out["lightest"] == 0 and first["lightest"] is True
+    text = run_cli(*base, "--order", "lightest", "--waive-as-min").stdout
+    assert "ok by 9.6.1.3" in text and "9.6.1.3 waiver" in text
+
+
+def test_text_output_marks_the_lightest_in_the_practical_order(run_cli):
+    # 14 × 24 in, Mu 300 kip·ft: one layer first (3 #10), the lightest 8 #6 (6 + 2) = 3.52 in²
+    # further down (see test_design.test_practical_order_puts_one_layer_first_...).
+    done = run_cli("design", "--units", "us", "--fc", "4000", "--fy", "60000", "--b", "14",
+                   "--h", "24", "--mu", "300")
+    rows = [line for line in done.stdout.splitlines() if line.startswith("  ") and " ok" in line]
+    assert rows[0].split()[:2] == ["3", "#10"]
+    marked = [row for row in rows if row.endswith("<- lightest")]
+    assert len(marked) == 1 and marked[0].split()[:2] == ["8", "#6"]
+    assert "order: practical" in done.stdout
+
+
+@pytest.mark.parametrize("extra, field", [
+    (["--order", "cheapest"], "order"),
+    (["--order", ""], "order"),
+], ids=["order-word", "order-blank"])
+def test_bad_order_exits_2_naming_it(run_cli, extra, field):
+    done = run_cli("design", *SECTION, *extra)
+    assert done.returncode == 2 and done.stdout == ""
+    assert done.stderr.startswith(f"python -m engine design: {field}: ")

@@ -120,11 +120,13 @@ def test_high_strength_bars_peak_at_the_tension_controlled_limit():
 
 
 def test_options_are_best_first_and_failing_ones_carry_their_rule():
-    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=180)
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=180,
+                                   order="lightest")
     ok = [o for o in result.options if o.ok]
     failing = [o for o in result.options if not o.ok]
     assert result.options[:len(ok)] == tuple(ok)
     assert [(o.As, o.count) for o in ok] == sorted((o.As, o.count) for o in ok)
+    assert result.lightest is ok[0]
     assert failing and all(o.failed_rules for o in failing)
     # 19 #3 carry Mu but do not fit (10 + 9 in 12 in: (8.25 − 3.75)/9 = 0.5 in < 1 in).
     threes = next(o for o in failing if o.bar.designation == "#3")
@@ -193,8 +195,10 @@ def test_detailing_of_a_deep_beam_with_a_span():
 
 def test_small_moment_is_governed_by_minimum_steel_or_its_alternative():
     # Mu 20 kip·ft in 12 × 24: As,req ≈ 0.21 in², As,min = 200/60000 × 12 × d ≈ 0.86 in².
-    # 9.6.1.3 lets 4/3 × As,req ≈ 0.28 in² do; every ok option has at least that.
-    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=20)
+    # With the waiver allowed, 9.6.1.3 lets 4/3 × As,req ≈ 0.28 in² do; every ok option has
+    # at least that.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=20,
+                                   waive_as_min=True)
     for option in (o for o in result.options if o.ok):
         assert option.As >= 4 / 3 * option.As_req - 1e-12
         assert option.As >= min(option.As_min, 4 / 3 * option.As_req) - 1e-12
@@ -247,18 +251,20 @@ def _fit(b, cover, ds, db, s_min, n):
 
 
 def _layouts(n, b, cover, ds, db, s_min, max_layers):
-    """Every placement the design may use: one layer if it fits, else two (upper ≤ lower, ≥ 2)."""
+    """Every placement the design may use: one layer if it fits, else two, the bottom with at
+    least 2 (its corners) and no fewer than the upper, which may hold 1 (25.2.2)."""
     if n < 2:
         return []
     if _fit(b, cover, ds, db, s_min, n):
         return [(n,)]
     if max_layers == 1:
         return []
-    return [(n1, n - n1) for n1 in range(2, n - 1) if n - n1 <= n1 and _fit(b, cover, ds, db, s_min, n1)]
+    return [(n1, n - n1) for n1 in range(2, n) if n - n1 <= n1 and _fit(b, cover, ds, db, s_min, n1)]
 
 
 def _works(inputs, layout, db, area, ds):
-    """Every rule the design applies, computed here: strength, εt, As,min via engine.check;
+    """Every rule the design applies, computed here: strength, εt, As,min via engine.check
+    (which allows 9.6.1.3; without the waiver As ≥ As,min of 9.6.1.2 is asked here);
     spacing (25.2.1), crack control (Table 24.3.2), cover (Table 20.5.1.3.1, not exposed)."""
     units, fc, fy, b, h, Mu, cover, agg, gap = (inputs[k] for k in
                                                 ("units", "fc", "fy", "b", "h", "Mu", "cover", "agg", "layer_gap"))
@@ -274,7 +280,9 @@ def _works(inputs, layout, db, area, ds):
     s_max = min(15 * 40000 / fs - 2.5 * cc, 12 * 40000 / fs) if us else \
         min(380 * 280 / fs - 2.5 * cc, 300 * 280 / fs)
     spacing = (b - 2 * cc - layout[0] * db) / (layout[0] - 1) + db
-    return r.ok and spacing <= s_max * (1 + 1e-9) and cover >= (1.5 if us else 40.0), r
+    as_min_met = inputs["waive_as_min"] or sum(n for n in layout) * area >= r.limits.As_min.value
+    return (r.ok and as_min_met and spacing <= s_max * (1 + 1e-9)
+            and cover >= (1.5 if us else 40.0)), r
 
 
 design_inputs = st.fixed_dictionaries({
@@ -289,8 +297,11 @@ design_inputs = st.fixed_dictionaries({
     "agg": st.sampled_from([0.375, 0.75, 1.0, 1.5]),
     "layers": st.sampled_from([1, 2]),
     "layer_gap": st.sampled_from([1.0, 1.25]),
+    "order": st.sampled_from(["practical", "lightest"]),
+    "waive_as_min": st.booleans(),
 })
 STIRRUP_DB = {"#3": 0.375, "#4": 0.5}
+AREA_TIE = 0.005  # issue 11: areas within 0.5 % rank as equal, and then fewer bars decide
 
 
 @settings(max_examples=40, deadline=None, suppress_health_check=[HealthCheck.too_slow])
@@ -321,7 +332,7 @@ def test_every_ok_option_really_works_and_fits(inputs):
         works, _ = _works(inputs, option.per_layer, db, area, ds)
         assert works, option.label
         if option.layers == 2:
-            assert 2 <= option.per_layer[1] <= option.per_layer[0]
+            assert 1 <= option.per_layer[1] <= option.per_layer[0]
             s_min = max(1.0, db, 4 / 3 * inputs["agg"])
             assert not _fit(inputs["b"], inputs["cover"], ds, db, s_min, option.count)
 
@@ -331,10 +342,12 @@ def test_every_ok_option_really_works_and_fits(inputs):
 def test_nothing_lighter_that_works_is_missing(inputs):
     result = engine.design_section(**inputs)
     ds = STIRRUP_DB[inputs["stirrup"]]
-    best = result.best
-    # Independent brute force over every bar, count and placement lighter than the best
-    # (or, with no best, up to the area no section could balance: 0.85 f'c b h / fy).
-    ceiling = best.As - 1e-9 if best is not None else 0.85 * inputs["fc"] * inputs["b"] * inputs["h"] / inputs["fy"]
+    best = result.lightest
+    assert best is None or all(best.As <= o.As * (1 + AREA_TIE) for o in result.options if o.ok)
+    # Independent brute force over every bar, count and placement lighter than the lightest by
+    # more than the tie (within it fewer bars decide: 11 #5 = 3.41 in² is marked over 17 #4 =
+    # 3.40 in²), or, with none, up to the area no section could balance: 0.85 f'c b h / fy.
+    ceiling = best.As / (1 + AREA_TIE) - 1e-9 if best is not None else 0.85 * inputs["fc"] * inputs["b"] * inputs["h"] / inputs["fy"]
     lightest = None
     for designation, (db, area) in US_BARS.items():
         s_min = max(1.0, db, 4 / 3 * inputs["agg"])
@@ -374,20 +387,24 @@ def test_a_suggested_size_is_never_the_size_given():
     assert "h = 24 in" not in deeper and "b = 14 in" not in wider
 
 
-def test_a_count_that_fits_no_layer_does_not_end_the_search():
+def test_a_count_too_wide_for_one_layer_splits_two_plus_one():
     # Found by test_nothing_lighter_that_works_is_missing. 8 × 12 in, 2 in cover to #4 stirrups,
     # 1.5 in aggregate: the width inside the stirrups is 8 − 2·(2 + 0.5) = 3 in and the least clear
     # spacing max(1 in, db, 4/3·1.5 in) = 2 in (25.2.1). 3 #4 in one layer leave (3 − 1.5)/2 =
-    # 0.75 in and cannot split (2 per layer at least, 25.2.2), but 4 #4 as 2 + 2 leave 3 − 1 = 2 in.
-    # By hand (Whitney block, 22.2.2): d = (9.25 + 7.75)/2 = 8.5 in, a = 0.8·40/(0.85·3·8) = 1.569 in,
-    # φMn = 0.9·0.8·40·(8.5 − 0.784)/12 = 18.52 kip·ft ≥ 11; εt = 0.003·(9.25 − 1.846)/1.846 = 0.0120.
+    # 0.75 in, but 2 + 1 (one bar above, 25.2.2) leave 3 − 1 = 2 in. 2 #4 fall short: by hand
+    # φMn = 0.9·0.4·40·(9.25 − 0.392)/12 = 10.63 kip·ft < 11.
+    # 3 #4 as 2 + 1, by hand (Whitney block, 22.2.2): dt = 12 − 2 − 0.5 − 0.25 = 9.25 in, the upper
+    # bar 0.5 + 1 in higher at 7.75 in, d = (2·9.25 + 7.75)/3 = 8.75 in; a = 0.6·40/(0.85·3·8) =
+    # 1.176 in, c = 1.384 in (both layers yield: 0.003·(7.75 − 1.384)/1.384 = 0.0138 > 0.00138);
+    # φMn = 0.9·0.6·40·(8.75 − 0.588)/12 = 14.69 kip·ft ≥ 11; εt = 0.003·(9.25 − 1.384)/1.384 =
+    # 0.0171. As,min (9.6.1.2) = 200/40000·8·8.75 = 0.35 in² ≤ 0.60.
     result = engine.design_section(units="us", fc=3000, fy=40000, b=8, h=12, Mu=11, cover=2,
                                    stirrup="#4", agg=1.5)
     best = result.best
     assert best is not None and best.ok
-    assert (best.bar.designation, best.per_layer) == ("#4", (2, 2))
-    assert best.phiMn == pytest.approx(18.52, abs=0.01)
-    assert best.eps_t == pytest.approx(0.0120, abs=1e-4)
+    assert (best.bar.designation, best.per_layer) == ("#4", (2, 1))
+    assert best.phiMn == pytest.approx(14.69, abs=0.01)
+    assert best.eps_t == pytest.approx(0.0171, abs=1e-4)
 
 
 def test_a_feasible_demand_without_an_as_req_in_reach_is_said_not_raised():
@@ -397,3 +414,137 @@ def test_a_feasible_demand_without_an_as_req_in_reach_is_said_not_raised():
     result = engine.design_section(units="us", fc=4000, fy=60000, b=14, h=24, Mu=190, es=4000)
     assert result.feasible and result.As_req is None
     assert "no As,req was found within the section's own area" in result.verdict
+
+
+# --- issue 11 item 5: the lightest and the practical ------------------------------------
+
+def _lightest_passing(result):
+    """The least steel area among the options that meet every rule (ties: fewer bars)."""
+    return min((o for o in result.options if o.ok), key=lambda o: (round(o.As, 6), o.count))
+
+
+@pytest.mark.parametrize("inputs, designation, per_layer, area, layers_by_hand", [
+    # SI, f'c 25, fy 420, 250 × 450 mm, Mu 60 kN·m, 40 mm cover to No. 10 stirrups (Table
+    # 20.5.1.3.1, not exposed), 19 mm aggregate. No. 10 bars (A615M: 9.5 mm, 71 mm²):
+    # s_min = max(25, 9.5, 4/3·19 = 25.33) mm (25.2.1); inside the stirrup 250 − 2·49.5 = 151 mm
+    # holds 5 (5·9.5 + 4·25.33 = 148.8 mm) but not 6 (183.7 mm), so 6 bars are 5 + 1.
+    # dt = 450 − 40 − 9.5 − 4.75 = 395.75 mm; the upper bar 9.5 + 25 mm (25.2.2) higher: 361.25.
+    # 6 × 71 = 426 mm² against the 497 mm² (7 × 71, 5 + 2) listed before.
+    pytest.param(dict(units="si", fc=25, fy=420, b=250, h=450, Mu=60), "10", (5, 1), 6 * 71.0,
+                 ((5 * 71.0, 395.75), (71.0, 361.25)), id="si-6-No10-5+1"),
+    # US, f'c 8000, fy 100,000, 12 × 18 in, Mu 270.7 kip·ft, 1.5 in cover to #3 stirrups.
+    # #6 bars (A615: 0.75 in, 0.44 in²): s_min = max(1, 0.75, 1) = 1 in; inside 12 − 3.75 =
+    # 8.25 in holds 5 (3.75 + 4 = 7.75 in), not 6 (9.5 in). dt = 18 − 1.5 − 0.375 − 0.375 =
+    # 15.75 in; upper bar 0.75 + 1 = 1.75 in higher: 14.0 in. 6 × 0.44 = 2.64 in², where 3 #9
+    # (3.00 in²) was listed best before.
+    pytest.param(dict(units="us", fc=8000, fy=100000, b=12, h=18, Mu=270.7), "#6", (5, 1),
+                 6 * 0.44, ((5 * 0.44, 15.75), (0.44, 14.0)), id="us-6-#6-5+1"),
+])
+def test_one_bar_in_the_upper_layer_is_tried(inputs, designation, per_layer, area,
+                                              layers_by_hand):
+    result = engine.design_section(**inputs)
+    lightest = _lightest_passing(result)
+    assert (lightest.bar.designation, lightest.per_layer) == (designation, per_layer)
+    assert lightest.As == pytest.approx(area, rel=1e-12)
+    flat = [value for layer in lightest.arrangement.steel_layers for value in layer]
+    assert flat == pytest.approx([value for layer in layers_by_hand for value in layer])
+    # It passes by the engine's own check (strength 9.5.1.1, εt 9.3.3.1, As,min 9.6.1.2) on the
+    # layers placed by hand; crack control (Table 24.3.2) by hand: 5 bars across the stirrup
+    # are at most (inside − db)/4 apart, far below s of Table 24.3.2 in both cases.
+    checked = engine.check(units=inputs["units"], fc=inputs["fc"], fy=inputs["fy"],
+                           b=inputs["b"], h=inputs["h"], Mu=inputs["Mu"],
+                           layers=list(layers_by_hand))
+    assert checked.ok and checked.phiMn >= inputs["Mu"]
+    assert checked.limits.As_min.value <= area
+
+
+def test_equal_areas_are_ranked_by_the_rule_not_by_float_noise():
+    # 16 × 30 in, f'c 4000, Grade 60, Mu 750 kip·ft. By ASTM A615 Table 1, 5 #11 = 5 × 1.56 and
+    # 13 #7 = 13 × 0.60 are both 7.80 in² (in floating point 7.800000000000001 and 7.8), and
+    # 2 #18 = 2 × 4.00 and 8 #9 = 8 × 1.00 are both 8.00 in². Equal areas: fewer bars first.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=16, h=30, Mu=750,
+                                   order="lightest")
+    labels = [o.label.split(" (")[0] for o in result.options if o.ok]
+    assert 5 * 1.56 != 13 * 0.60  # the float noise the ranking must not follow
+    assert labels.index("5 #11") < labels.index("13 #7")
+    assert labels.index("2 #18") < labels.index("8 #9")
+
+
+def test_practical_order_puts_one_layer_first_and_marks_the_lightest():
+    # 14 × 24 in, f'c 4000, Grade 60, Mu 300 kip·ft, 1.5 in cover to #3 stirrups (the CLI's
+    # defaults). Lightest: 8 #6 as 6 + 2 = 8 × 0.44 = 3.52 in² (ASTM A615), dt = 24 − 1.5 −
+    # 0.375 − 0.375 = 21.75 in, the upper layer 0.75 + 1 in higher at 20.0 in. Practical: one
+    # layer first; 3.52 × 1.10 = 3.872 in² bounds the areas counted equal to the lightest, so
+    # 3 #10 (3 × 1.27 = 3.81 in², d = 24 − 1.5 − 0.375 − 0.635 = 21.49 in) leads on fewer bars,
+    # then 6 #7 (3.60 in²); beyond the margin, 5 #8 (3.95) before 4 #9 (4.00) by area.
+    result = engine.design_section(units="us", fc=4000, fy=60000, b=14, h=24, Mu=300)
+    assert result.section.order is engine.Order.PRACTICAL
+    ok = [o for o in result.options if o.ok]
+    assert [o.layers for o in ok] == sorted(o.layers for o in ok)
+    assert [o.label for o in ok[:4]] == ["3 #10", "6 #7", "5 #8", "4 #9"]
+    assert result.best.label == "3 #10"
+    assert (result.lightest.label, result.lightest.As) == ("8 #6 (6 + 2)", pytest.approx(8 * 0.44))
+    data = result.to_dict()
+    assert data["lightest"] == result.options.index(result.lightest) and data["best"] == 0
+    assert [o["lightest"] for o in data["options"]].count(True) == 1
+    assert "Lightest that works: 8 #6 (6 + 2)" in result.verdict
+    for layers in ([(3 * 1.27, 21.49)], [(6 * 0.44, 21.75), (2 * 0.44, 20.0)]):
+        assert engine.check(units="us", fc=4000, fy=60000, b=14, h=24, Mu=300,
+                            layers=layers).ok
+    lightest_first = engine.design_section(units="us", fc=4000, fy=60000, b=14, h=24, Mu=300,
+                                           order="lightest")
+    assert lightest_first.best is lightest_first.lightest
+    assert lightest_first.best.label == "8 #6 (6 + 2)"
+    assert "It is also the lightest that works." in lightest_first.verdict
+
+
+def test_as_min_of_9_6_1_2_by_default_the_9_6_1_3_waiver_when_allowed():
+    # 12 × 24 in, f'c 4000, Grade 60, Mu 15 kip·ft, 1.5 in cover to #3 stirrups. 9.6.1.2:
+    # As,min = max(3√4000 = 189.7, 200)/60000 · 12 · d = 0.04 d in²; with #3 bars in one layer
+    # d = 24 − 1.5 − 0.375 − 0.1875 = 21.9375 in, As,min = 0.8775 in², while 2 #3 = 0.22 in²
+    # (A615) carry Mu (As,req ≈ 0.153 in², 4/3 of it 0.204 in²). By default no option is below
+    # As,min at its own d; the lightest is 2 #6 = 0.88 in² ≥ 0.04 × 21.75 = 0.870 in².
+    strict = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=15)
+    assert strict.section.waive_as_min is False
+    for option in (o for o in strict.options if o.ok):
+        assert option.As >= 200 / 60000 * 12 * option.d * (1 - 1e-12), option.label
+        assert not option.min_steel_waived
+    assert strict.lightest.label == "2 #6"
+    assert "9.6.1.3" not in strict.verdict
+    waived = engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=15,
+                                   waive_as_min=True, order="lightest")
+    two_3 = waived.best
+    assert (two_3.label, two_3.min_steel_waived) == ("2 #3", True)
+    assert two_3.As >= 4 / 3 * two_3.As_req
+    assert "9.6.1.3" in waived.verdict
+    assert waived.to_dict()["options"][0]["min_steel_waived"] is True
+    # The same bars judged by the strict design: 9.6.1.2 fails, and the waiver is named as refused.
+    checks = {c.clause: c for c in strict.detailing(two_3)}
+    assert "9.6.1.3" not in checks and not checks["9.6.1.2"].passed
+    assert "does not allow the waiver" in checks["9.6.1.2"].detail
+    assert any(c.clause == "9.6.1.3" and c.passed for c in waived.detailing(two_3))
+
+
+@pytest.mark.parametrize("kwargs, field", [
+    ({"order": "cheapest"}, "order"),
+    ({"order": 2}, "order"),
+    ({"waive_as_min": "yes"}, "waive_as_min"),
+    ({"waive_as_min": 1}, "waive_as_min"),
+], ids=["order-word", "order-number", "waiver-text", "waiver-int"])
+def test_bad_order_or_waiver_names_the_field(kwargs, field):
+    with pytest.raises(InputError, match=rf"^{field}: ") as caught:
+        engine.design_section(units="us", fc=4000, fy=60000, b=12, h=24, Mu=180, **kwargs)
+    assert caught.value.field == field
+
+
+def test_areas_within_the_tie_go_to_fewer_bars():
+    # Found by test_nothing_lighter_that_works_is_missing. 17 × 28 in, f'c 3000, Grade 60,
+    # Mu 332 kip·ft, 1.5 in cover to #4 stirrups, 3/8 in aggregate: 17 #4 = 17 × 0.20 = 3.40 in²
+    # and 11 #5 = 11 × 0.31 = 3.41 in² (ASTM A615) differ by 0.3 %, inside the 0.5 % tie, so the
+    # fewer bars rank first and are marked the lightest.
+    result = engine.design_section(units="us", fc=3000, fy=60000, b=17, h=28, Mu=332, cover=1.5,
+                                   stirrup="#4", agg=0.375, order="lightest")
+    first, second = result.options[:2]
+    assert (first.bar.designation, first.count, second.bar.designation, second.count) == \
+        ("#5", 11, "#4", 17)
+    assert first.ok and second.ok and result.lightest is first

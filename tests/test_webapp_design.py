@@ -133,3 +133,71 @@ def test_typed_cover_is_converted_on_a_unit_switch(page):
     page.unit_switch.value = "si"
     assert page.cover == pytest.approx(2.0 * 25.4, rel=1e-9)  # 1 in = 25.4 mm (NIST SP 811)
     assert page.size_bars.cover_input.value == pytest.approx(50.8, rel=1e-9)
+
+
+def _row_of_mark(table_html: str) -> str:
+    """The option label of the one table row that carries the 'lightest' mark."""
+    rows = [row for row in table_html.split("<tr") if 'data-q="lightest_mark"' in row]
+    assert len(rows) == 1
+    return displayed("<tr" + rows[0])["option_label"][0]
+
+
+def test_order_selector_waiver_checkbox_and_the_lightest_mark(page):
+    # B-204 (14 × 24 in) at Mu 300 kip·ft: practical puts a one-layer option first, the lightest
+    # (8 #6 as 6 + 2 = 3.52 in², ASTM A615) is further down and marked in words, not colour only;
+    # see test_design.test_practical_order_puts_one_layer_first_and_marks_the_lightest.
+    view = page.size_bars
+    page.mu_input.value = 300.0
+    assert view.result.section.order is engine.Order.PRACTICAL
+    assert view.result.options[0].layers == 1
+    assert _row_of_mark(view.table.object) == "8 #6 (6 + 2)"
+    assert displayed(view.table.object)["lightest_mark"] == ["· lightest"]
+    assert any(label.endswith("(lightest)") and "8 #6" in label for label in view.choice.options)
+    assert "order=" not in page._written_search and "waiver=" not in page._written_search
+    view.order_input.value = "lightest (least steel)"
+    assert view.result.options[0].label == "8 #6 (6 + 2)"
+    assert "order=lightest" in page._written_search
+    view.waiver_input.value = True
+    assert view.result.section.waive_as_min is True
+    assert "waiver=1" in page._written_search
+    # The link carries both and reopens to the same design; absent, they default.
+    other = BeamCheckPage()
+    other.apply_link(page._written_search)
+    assert (other.order, other.waiver) == ("lightest", True)
+    assert other.size_bars.order_input.value == "lightest (least steel)"
+    assert other.size_bars.waiver_input.value is True
+    assert [o.label for o in other.size_bars.result.options] == \
+        [o.label for o in view.result.options]
+    plain, messages = parse_query("?units=us&Mu=300")
+    assert messages == () and (plain.order, plain.waiver) == (None, False)
+
+
+def test_waiver_used_is_named_in_the_table(page):
+    # Mu 15 kip·ft in B-204: 2 #3 (0.22 in²) are far below As,min of 9.6.1.2 (200/60000·14·d,
+    # about 1.02 in² by hand) and pass only by 9.6.1.3 when the waiver is allowed.
+    view = page.size_bars
+    page.mu_input.value = 15.0
+    assert "9.6.1.3 waiver" not in view.table.object
+    view.order_input.value = "lightest (least steel)"
+    view.waiver_input.value = True
+    assert view.result.options[0].label == "2 #3"
+    assert displayed(view.table.object)["option_ok"][0].startswith("✔ ok (9.6.1.3 waiver)")
+    assert "9.6.1.3" in view.verdict.object
+
+
+def test_bad_order_or_waiver_in_a_link_is_named_and_defaults(page):
+    page.apply_link("?units=us&order=cheapest&waiver=perhaps")
+    assert any(m.startswith("order:") for m in page.link_messages)
+    assert any(m.startswith("waiver:") for m in page.link_messages)
+    assert (page.order, page.waiver) == (None, False)
+    assert page.size_bars.result.section.order is engine.Order.PRACTICAL
+
+
+def test_design_labels_are_short_and_the_stirrup_picker_has_no_unit(page):
+    view = page.size_bars
+    assert view.cover_input.label == "cover to stirrup (in)"
+    assert view.cover_input.placeholder == "code"
+    assert view.stirrup_input.label == "stirrup bar"  # a designation such as #3, not a length
+    page.unit_switch.value = "si"
+    assert view.cover_input.label == "cover to stirrup (mm)"
+    assert "(" not in view.stirrup_input.label

@@ -1,11 +1,12 @@
 """"Size the bars": from Mu and a trial b × h to bar arrangements, and back into the check.
 
-`SizeBarsView` holds the bar-sizing inputs' widgets, runs
+`SizeBarsView` holds the bar-sizing inputs' widgets (among them the order
+of the options and whether the 9.6.1.3 waiver of As,min is allowed), runs
 `engine.design_section` on the page's current materials, b, h and Mu, and
-shows the options best first (bar, count, layers, As, d, dt, φMn, εt, clear
-spacing, ok, the rules each breaks with its clause), the verdict and the
-ways out when nothing works, and the detailing checks of the selected
-option. "Use in the check" hands the option's layers to the page. Every
+shows the options in that order (bar, count, layers, As, d, dt, φMn, εt,
+clear spacing, ok, the rules each breaks with its clause), the lightest that
+works marked in words, the verdict and the ways out when nothing works, and
+the detailing checks of the selected option. "Use in the check" hands the option's layers to the page. Every
 string shown is escaped; the numbers are the engine's.
 """
 
@@ -24,6 +25,9 @@ from .theme import TEXT_CSS
 SUPPORTS = {"not given": None, "simply supported": "simple", "one end continuous": "one-end",
             "both ends continuous": "both-ends", "cantilever": "cantilever"}
 STIRRUPS = {"us": ["#3", "#4", "#5"], "si": ["10", "13", "16"]}
+ORDERS = {"practical (fewer layers, fewer bars)": engine.Order.PRACTICAL.value,
+          "lightest (least steel)": engine.Order.LIGHTEST.value}
+LIGHTEST_MARK = "lightest"
 
 
 def design_kwargs(inputs) -> dict:
@@ -35,7 +39,9 @@ def design_kwargs(inputs) -> dict:
               "cover": inputs.cover,  # None: the engine's Table 20.5.1.3.1 default
               "stirrup": inputs.stirrup or base["stirrup"],
               "agg": inputs.agg if inputs.agg is not None else base["agg"],
-              "layers": inputs.nlayers or base["nlayers"]}
+              "layers": inputs.nlayers or base["nlayers"],
+              "order": inputs.order or engine.Order.PRACTICAL.value,
+              "waive_as_min": inputs.waiver}
     if inputs.span is not None and inputs.support is not None:
         kwargs.update(span=inputs.span, support=inputs.support)
     return kwargs
@@ -87,7 +93,10 @@ def options_html(result: engine.DesignResult, selected: int | None) -> str:
     for index, option in enumerate(result.options):
         rules = "; ".join(f"{escape(rule.clause)}: {escape(rule.message)}"
                           for rule in option.failed_rules) or "—"
-        mark = "✔ ok" if option.ok else "✘ no"
+        mark = ("✔ ok" + (" (9.6.1.3 waiver)" if option.min_steel_waived else "")
+                if option.ok else "✘ no")
+        if option is result.lightest:
+            mark += f' <strong data-q="lightest_mark">· {LIGHTEST_MARK}</strong>'
         chosen = ' class="rs-chosen"' if index == selected else ""
         rows.append(
             f'<tr{chosen} data-q="option"><td class="num">{index + 1}</td>'
@@ -97,7 +106,7 @@ def options_html(result: engine.DesignResult, selected: int | None) -> str:
             f'<td class="num">{fmt(option.dt)}</td><td class="num">{fmt(option.phiMn)}</td>'
             f'<td class="num">{fmt(option.eps_t)}</td>'
             f'<td class="num">{fmt(option.clear_spacing, 3)}</td>'
-            f'<td class="{"pass" if option.ok else "fail"}">{mark}</td>'
+            f'<td class="{"pass" if option.ok else "fail"}" data-q="option_ok">{mark}</td>'
             f'<td class="rs-note">{rules}</td></tr>')
     head = (f'<tr><th>#</th><th>bars</th><th>count</th><th>layers</th><th>As ({A})</th>'
             f'<th>d ({L})</th><th>dt ({L})</th><th>φMn ({M})</th><th>εt</th>'
@@ -142,24 +151,30 @@ class SizeBarsView:
         self.result: engine.DesignResult | None = None
         self._key = None
         units = page.units
+        # Widths hold each label at about 7 px a character, so no label runs into the next.
         self.h_input = pn.widgets.FloatInput(label="", start=0.0, css_classes=["rs-design-h"],
-                                             format="0[.][0000]", width=120)
+                                             format="0[.][0000]", width=150)
         self.mu_input = pn.widgets.FloatInput(label="", start=0.0, css_classes=["rs-design-Mu"],
                                               format="0[.][0000]", width=120)
         self.cover_input = pn.widgets.FloatInput(label="", start=0.0, format="0[.][0000]",
-                                                 placeholder="code default",
-                                                 css_classes=["rs-design-cover"], width=120)
-        self.stirrup_input = pn.widgets.Select(label="", options=STIRRUPS[units], width=90,
+                                                 placeholder="code",
+                                                 css_classes=["rs-design-cover"], width=150)
+        self.stirrup_input = pn.widgets.Select(label="", options=STIRRUPS[units], width=110,
                                                css_classes=["rs-design-stirrup"])
         self.agg_input = pn.widgets.FloatInput(label="", start=0.0, format="0[.][0000]",
                                                css_classes=["rs-design-agg"], width=110)
         self.layers_input = pn.widgets.RadioButtonGroup(label="Layers", options=[1, 2], value=2,
                                                         css_classes=["rs-design-layers"])
         self.span_input = pn.widgets.FloatInput(label="", start=0.0, format="0[.][0000]",
-                                                placeholder="none", width=120,
+                                                placeholder="none", width=175,
                                                 css_classes=["rs-design-span"])
         self.support_input = pn.widgets.Select(label="", options=list(SUPPORTS), width=170,
                                                css_classes=["rs-design-support"])
+        self.order_input = pn.widgets.Select(label="order of the options", options=list(ORDERS),
+                                             width=240, css_classes=["rs-design-order"])
+        self.waiver_input = pn.widgets.Checkbox(
+            label="allow the 9.6.1.3 waiver (As ≥ 4/3 As,req in place of As,min)", value=False,
+            css_classes=["rs-design-waiver"])
         self.choice = pn.widgets.Select(label="Option", options={}, width=260,
                                         css_classes=["rs-design-choice"])
         self.use_button = pn.widgets.Button(label="Use this option in the check",
@@ -173,7 +188,8 @@ class SizeBarsView:
         for widget, name in ((self.h_input, "h"), (self.mu_input, "Mu"),
                              (self.cover_input, "cover"), (self.stirrup_input, "stirrup"),
                              (self.agg_input, "agg"), (self.layers_input, "nlayers"),
-                             (self.span_input, "span"), (self.support_input, "support")):
+                             (self.span_input, "span"), (self.support_input, "support"),
+                             (self.order_input, "order"), (self.waiver_input, "waiver")):
             widget.param.watch(lambda event, name=name: self._on_input(name, event.new), "value")
         self.choice.param.watch(self._on_choice, "value")
         self.use_button.on_click(lambda event: self.use_selected())
@@ -183,13 +199,16 @@ class SizeBarsView:
     def input_widgets(self) -> list:
         """The bar-sizing inputs' widgets (the page re-sends their values, see widget_sync)."""
         return [self.h_input, self.mu_input, self.cover_input, self.stirrup_input,
-                self.agg_input, self.layers_input, self.span_input, self.support_input]
+                self.agg_input, self.layers_input, self.span_input, self.support_input,
+                self.order_input, self.waiver_input]
 
     def _on_input(self, name: str, value) -> None:
         if self._syncing or self.page._applying:
             return
         if name == "support":
             value = SUPPORTS.get(value)
+        elif name == "order":
+            value = ORDERS.get(value)
         self.page.set_inputs(**{name: value})
 
     def _on_choice(self, event) -> None:
@@ -236,8 +255,10 @@ class SizeBarsView:
             self.verdict.object = verdict_html(self.result)
             self._syncing = True
             try:
-                self.choice.options = {f"{i + 1}. {o.label}{'' if o.ok else ' (fails)'}": i
-                                       for i, o in enumerate(self.result.options)}
+                self.choice.options = {
+                    f"{i + 1}. {o.label}{'' if o.ok else ' (fails)'}"
+                    f"{f' ({LIGHTEST_MARK})' if o is self.result.lightest else ''}": i
+                    for i, o in enumerate(self.result.options)}
                 best = self.result.best
                 self.choice.value = (self.result.options.index(best) if best is not None
                                      else 0 if self.result.options else None)
@@ -281,17 +302,22 @@ class SizeBarsView:
                       self.layers_input: inputs.nlayers or base["nlayers"],
                       self.span_input: inputs.span,
                       self.support_input: next(k for k, v in SUPPORTS.items()
-                                               if v == inputs.support)}
+                                               if v == inputs.support),
+                      self.order_input: next(k for k, v in ORDERS.items()
+                                             if v == (inputs.order or
+                                                      engine.Order.PRACTICAL.value)),
+                      self.waiver_input: bool(inputs.waiver)}
             for widget, value in values.items():
                 if widget.value != value:
                     widget.value = value
             labels = ((self.h_input, "h, overall depth", "h"), (self.mu_input, "Mu", "Mu"),
-                      (self.cover_input, "clear cover to stirrup (blank: code)", "cover"),
+                      (self.cover_input, "cover to stirrup", "cover"),
                       (self.agg_input, "max aggregate", "agg"),
                       (self.span_input, "span (Table 9.3.1.1)", "span"))
             for widget, text, name in labels:
                 widget.label = f"{text} ({unit_label(units, name)})"
-            self.stirrup_input.label = "stirrup"
+            # A bar designation (#3, 10), not a length: no unit in its label.
+            self.stirrup_input.label = "stirrup bar"
             self.support_input.label = "support"
             self.layers_input.label = "layers at most"
         finally:
@@ -309,6 +335,7 @@ class SizeBarsView:
                            '<div class="rs-note">layers at most</div>', stylesheets=[TEXT_CSS],
                            margin=(0, 5)), self.layers_input),
                        self.span_input, self.support_input, gap="0 6px"),
+            pn.FlexBox(self.order_input, self.waiver_input, gap="0 12px", align_items="flex-end"),
             self.message, self.verdict, self.table,
             pn.Row(self.choice, self.use_button, align="end"),
             self.detail,

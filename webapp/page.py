@@ -120,6 +120,8 @@ class BeamCheckPage(pn.viewable.Viewer):
     nlayers = param.Integer(default=None, allow_None=True)
     span = param.Number(default=None, allow_None=True)
     support = param.String(default=None, allow_None=True)
+    order = param.String(default=None, allow_None=True, doc="bar options' ranking; None: practical")
+    waiver = param.Boolean(default=False, doc="9.6.1.3 may stand in for As,min in bar sizing")
     bars = param.String(default=None, allow_None=True, doc="chosen arrangement, e.g. #8:4,2")
     es = param.Number(default=None, allow_None=True,
                       doc="Es in psi or MPa; None: ACI 318-19 20.2.2.2's value")

@@ -5,7 +5,8 @@ The link format is `engine.share_link`'s (the one encoder and reader of links):
 and for other sections `dt`, `h`, `shape` (rect, T, L) with `bf` and `hf`
 (or the slab's `sw` and `ln`, Table 6.3.2.1), `asc` and `dc`, and one
 `layer=AREA@DEPTH` per extra tension layer; the bar-sizing inputs `cover`,
-`stirrup`, `agg`, `nlayers`, `span`, `support`, and `bars` (the chosen
+`stirrup`, `agg`, `nlayers`, `span`, `support`, `order` (the ranking of the
+options), `waiver` (the 9.6.1.3 waiver allowed), and `bars` (the chosen
 arrangement). Numbers are written in the shortest form that reads back to
 the same float, so opening a link reproduces the check exactly.
 
@@ -106,6 +107,8 @@ class Inputs:
     nlayers: int | None = None
     span: float | None = None
     support: str | None = None
+    order: str | None = None  # ranking of the bar options; None: the engine's (practical)
+    waiver: bool = False  # let 9.6.1.3 (As ≥ 4/3 As,req) stand in for As,min
     bars: str | None = field(default=None)
     es: float | None = None
     spiral: bool = False
@@ -142,6 +145,7 @@ class Inputs:
                 "sw": self.sw if flanged else None, "ln": self.ln if flanged else None,
                 "cover": self.cover, "stirrup": self.stirrup, "agg": self.agg,
                 "nlayers": self.nlayers, "span": self.span, "support": self.support,
+                "order": self.order, "waiver": True if self.waiver else None,
                 "bars": self.bars}
 
     def to_query(self) -> str:
@@ -409,6 +413,11 @@ def _design_settings(units: str, kwargs: dict, values: dict, messages: list) -> 
             pass
         if span is not None:
             settings.update(span=span, support=support)
+    # Words the link reader has already checked; they fit every section.
+    if values.get("order") is not None:
+        settings["order"] = values["order"]
+    if values.get("waiver"):
+        settings["waiver"] = True
     if values.get("bars") is not None:
         settings["bars"] = values["bars"]
     return settings

@@ -6,7 +6,7 @@ import argparse
 import json
 
 from ..checks import CAUTION
-from ..design import DesignResult, design_section
+from ..design import DesignResult, Order, design_section
 from ..detailing import Exposure, Support
 from .arguments import add_required_flags, parse_float
 
@@ -32,6 +32,13 @@ def register(commands) -> None:
     parser.add_argument("--span", metavar="F", help="span, in or mm, for Table 9.3.1.1 (with --support)")
     parser.add_argument("--support", metavar="NAME",
                         help=f"support condition: {', '.join(s.value for s in Support)}")
+    parser.add_argument("--order", metavar="NAME",
+                        help=f"ranking of the options: {Order.PRACTICAL.value} (fewer layers, then "
+                             f"fewer bars within 10 %% of the lightest area; default) or "
+                             f"{Order.LIGHTEST.value} (least area first)")
+    parser.add_argument("--waive-as-min", action="store_true",
+                        help="let As >= 4/3 As,req stand in for As,min (ACI 318-19 9.6.1.3); "
+                             "default: As,min of 9.6.1.2 always")
     parser.add_argument("--json", action="store_true", help="print one JSON object")
     parser.set_defaults(run=run_design)
 
@@ -52,7 +59,9 @@ def run_design(args: argparse.Namespace) -> str:
             ("span", "span"))},
         stirrup=args.stirrup, layers=_layers(args.layers),
         exposure=Exposure.NOT_EXPOSED.value if args.exposure is None else args.exposure,
-        support=args.support, bars=args.bars)
+        support=args.support, bars=args.bars,
+        order=Order.PRACTICAL.value if args.order is None else args.order,
+        waive_as_min=args.waive_as_min)
     return json.dumps(result.to_dict(), ensure_ascii=False) if args.json else summary(result)
 
 
@@ -72,6 +81,9 @@ def summary(result: DesignResult) -> str:
         f"   Mu = {s.Mu:g} {M}",
         f"  cover = {s.cover:g} {L} to {s.stirrup.designation} stirrups   aggregate = {s.aggregate:g} {L}"
         f"   up to {s.max_layers} layer{'s' if s.max_layers > 1 else ''}",
+        f"  order: {s.order.value}   As,min: "
+        + ("9.6.1.2, or 4/3 As,req where 9.6.1.3 waives it" if s.waive_as_min else
+           "9.6.1.2 (the 9.6.1.3 waiver not allowed)"),
         "",
         "  " + result.verdict,
     ]
@@ -80,7 +92,10 @@ def summary(result: DesignResult) -> str:
               f"{'εt':>9}{'clear ' + L:>10}  result")
     lines += ["", header, "  " + "-" * (len(header) - 2)]
     for o in result.options:
-        verdict = "ok" if o.ok else "fails " + ", ".join(rule.clause for rule in o.failed_rules)
+        verdict = ("ok" + (" by 9.6.1.3" if o.min_steel_waived else "") if o.ok else
+                   "fails " + ", ".join(rule.clause for rule in o.failed_rules))
+        if o is result.lightest:
+            verdict += "  <- lightest"
         lines.append(f"  {o.label:<16}{_num(o.As):>10}{_num(o.d):>10}{_num(o.dt):>10}"
                      f"{_num(o.phiMn):>14}{o.eps_t:>9.4f}{_num(o.clear_spacing):>10}  {verdict}")
     best = result.best

@@ -28,7 +28,7 @@ def test_pick_an_option_and_the_check_sketch_and_link_follow(page, app_url, scre
     pick = next(i for i, o in enumerate(design.options) if o.ok and o.layers == 1)
     option = design.options[pick]
     page.locator(".rs-design-choice select").select_option(
-        label=f"{pick + 1}. {option.label}")
+        label=f"{pick + 1}. {option.label}" + (" (lightest)" if option is design.lightest else ""))
     expect(page.locator("tr.rs-chosen [data-q=option_label]")).to_have_text(option.label)
     old = shown(page, "phiMn")
     page.get_by_role("button", name="Use this option in the check").click()

@@ -59,9 +59,11 @@ FLAGS = {
     "curve": SECTION_FLAGS + ("points",),
     "report": SECTION_FLAGS + ("mu", "out", "project", "mark", "engineer", "date", "link-base"),
     "design": ("units", "fc", "fy", "b", "h", "mu", "cover", "stirrup", "agg", "layers",
-               "layer-gap", "exposure", "bars", "fs", "es", "span", "support", "json"),
+               "layer-gap", "exposure", "bars", "fs", "es", "span", "support", "order",
+               "waive-as-min", "json"),
     "batch": ("IN.csv", "out", "json"),
 }
+SWITCHES = ("json", "spiral", "waive-as-min")  # flags that take no value
 # A flag that needs a partner gets a valid one, so the error is about the flag under test.
 PARTNERS = {"asc": {"dc": "2.5"}, "dc": {"asc": "1.2"}, "bf": {"hf": "4"}, "hf": {"bf": "48"},
             "span": {"support": "simple"}, "support": {"span": "240"}}
@@ -150,6 +152,7 @@ def reference(command: str, flags: dict[str, str], switches: set[str]) -> dict:
                                       "fs", "es", "span")},
             stirrup=flags.get("stirrup"), bars=flags.get("bars"), support=flags.get("support"),
             exposure=flags.get("exposure", "not-exposed"),
+            order=flags.get("order", "practical"), waive_as_min="waive-as-min" in switches,
             layers=2 if layers is None else (int(layers) if layers.strip() in ("1", "2")
                                              else layers)).to_dict()
     inputs = {"units": flags["units"], "spiral": "spiral" in switches,
@@ -188,7 +191,7 @@ def judge(command, flag, value, flags, switches, status, out, err, trace) -> str
     if command == "batch":
         data = json.loads(out)
         return None if data["summary"]["rows"] == 13 else "batch lost rows"
-    if flag in ("project", "mark", "engineer", "date", "out", "link-base", "json", "spiral"):
+    if flag in ("project", "mark", "engineer", "date", "out", "link-base") + SWITCHES:
         if flag == "date" and not re.fullmatch(r"\d{4}-\d{2}-\d{2}", value):
             return f"accepted the date {shown(value)}"
         return None
@@ -211,7 +214,7 @@ def one_case(rng: random.Random) -> tuple[str, list[str], str | None, float]:
     value = hostile_value(rng)
     flags = dict(BASES[command])
     switches = {"json"}
-    if flag in ("json", "spiral"):
+    if flag in SWITCHES:
         flags[flag] = value  # a switch given a value: argparse must refuse it in one line
         switches.discard(flag)
     else:
