@@ -11,6 +11,10 @@ def serve(port: int) -> int:
     """Serve the app at http://localhost:`port`/ until interrupted; 0 on a clean stop."""
     import panel as pn
 
+    from . import served_template
+
+    served_template.SERVING = True
+
     origins = [f"localhost:{port}", f"127.0.0.1:{port}"]
     print(f"Rhoscope at http://localhost:{port}/ (Ctrl+C stops it)", flush=True)
     try:

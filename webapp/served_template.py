@@ -15,6 +15,11 @@ SERVED_TEMPLATE = BASE_TEMPLATE.environment.from_string(
     '{% extends "base.html" %}{% block preamble %}' + VIEWPORT + '{{ super() }}{% endblock %}')
 
 
+SERVING = False
+"""Set by `webapp.serve` only: `panel convert` runs app.py too, and builds its own page."""
+
+
 def use_served_template(document) -> None:
-    """Serve `document` (a Panel server session's) with the viewport tag in its head."""
-    document.template = SERVED_TEMPLATE
+    """Serve `document` with the viewport tag in its head, when `python -m webapp serve` runs."""
+    if SERVING:
+        document.template = SERVED_TEMPLATE
