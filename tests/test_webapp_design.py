@@ -147,7 +147,7 @@ def test_order_selector_waiver_checkbox_and_the_lightest_mark(page):
     # (8 #6 as 6 + 2 = 3.52 in², ASTM A615) is further down and marked in words, not colour only;
     # see test_design.test_practical_order_puts_one_layer_first_and_marks_the_lightest.
     view = page.size_bars
-    page.mu_input.value = 300.0
+    page.mu_input.value = "300"
     assert view.result.section.order is engine.Order.PRACTICAL
     assert view.result.options[0].layers == 1
     assert _row_of_mark(view.table.object) == "8 #6 (6 + 2)"
@@ -176,7 +176,7 @@ def test_waiver_used_is_named_in_the_table(page):
     # Mu 15 kip·ft in B-204: 2 #3 (0.22 in²) are far below As,min of 9.6.1.2 (200/60000·14·d,
     # about 1.02 in² by hand) and pass only by 9.6.1.3 when the waiver is allowed.
     view = page.size_bars
-    page.mu_input.value = 15.0
+    page.mu_input.value = "15"
     assert "9.6.1.3 waiver" not in view.table.object
     view.order_input.value = "lightest (least steel)"
     view.waiver_input.value = True
