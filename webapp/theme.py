@@ -66,6 +66,9 @@ TEXT_CSS = f"""
 .bad .rs-mark, .fail {{ color: {FAIL}; }}
 h3 {{ font-size: 15px; margin: 10px 0 4px 0; color: {TEAL}; }}
 table {{ border-collapse: collapse; width: 100%; font-size: 13.5px; }}
+/* A table wider than a phone scrolls inside its own box, never the page sideways. */
+:host {{ max-width: 100%; }}
+table {{ display: block; overflow-x: auto; max-width: 100%; }}
 th, td {{ text-align: left; padding: 3px 8px 3px 0; border-bottom: 1px solid #e3e6e7;
   vertical-align: top; }}
 th {{ font-weight: 600; color: {MUTED}; font-size: 12.5px; }}
