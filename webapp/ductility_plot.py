@@ -37,6 +37,15 @@ _LEGEND = dict(orientation="horizontal", ncols=2, location="top_left",
                border_line_color=None, click_policy="none")
 
 
+def _figure(title: str, height: int) -> tuple:
+    """(figure, x range, y range): stretched to the tab's width, down to a phone's."""
+    x_range, y_range = Range1d(0, 1), Range1d(0, 1)
+    fig = figure(height=height, sizing_mode="stretch_width", min_width=300, x_range=x_range,
+                 y_range=y_range, tools="pan,wheel_zoom,box_zoom,reset,save", title=title)
+    style_figure(fig)
+    return fig, x_range, y_range
+
+
 def _empty_curve() -> dict:
     return dict(x=[], curvature=[], moment=[], eps_top=[], eps_t=[])
 
@@ -60,21 +69,14 @@ class CurvaturePlot:
                                              name="point-labels")
         self.comparisons = {key: ColumnDataSource(data=_empty_curve(), name=f"compare-{key}")
                             for key in LIMIT_KEYS}
-        self.x_range = Range1d(0, 1)
-        self.y_range = Range1d(0, 1)
-        fig = figure(height=380, sizing_mode="stretch_width", min_width=300,
-                     x_range=self.x_range, y_range=self.y_range,
-                     tools="pan,wheel_zoom,box_zoom,reset,save", title="Moment–curvature")
-        style_figure(fig)
+        fig, self.x_range, self.y_range = _figure("Moment–curvature", 380)
         fig.yaxis.formatter = NumeralTickFormatter(format=MOMENT_TICKS)
         fig.xaxis.formatter = NumeralTickFormatter(format="0.[000]")
         items = []
-        self.comparison_lines = {}
         for key in LIMIT_KEYS:
             color, dash = LIMIT_STYLE[key]
             line = fig.line("x", "moment", source=self.comparisons[key], line_color=color,
                             line_dash=dash, line_width=1.5, line_alpha=0.85)
-            self.comparison_lines[key] = line
             items.append(LegendItem(label=comparison_label(key), renderers=[line]))
         self.line = fig.line("x", "moment", source=self.curve, line_color=TEAL, line_width=3)
         markers = {name: fig.scatter("x", "moment", source=self.points[name],
@@ -145,12 +147,7 @@ class DuctilityPlot:
         self.section = ColumnDataSource(data=dict(rho=[], ductility=[]), name="section")
         self.limits = {key: ColumnDataSource(data=dict(rho=[], ductility=[]), name=f"limit-{key}")
                        for key in LIMIT_KEYS}
-        self.x_range = Range1d(0, 0.05)
-        self.y_range = Range1d(0, 1)
-        fig = figure(height=340, sizing_mode="stretch_width", min_width=300,
-                     x_range=self.x_range, y_range=self.y_range,
-                     tools="pan,wheel_zoom,box_zoom,reset,save", title="μφ against ρ")
-        style_figure(fig)
+        fig, self.x_range, self.y_range = _figure("μφ against ρ", 340)
         fig.xaxis.axis_label = "ρ = As / (b d)"
         fig.yaxis.axis_label = "curvature ductility μφ"
         fig.xaxis.formatter = NumeralTickFormatter(format="0.000")

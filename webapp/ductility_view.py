@@ -22,11 +22,11 @@ from dataclasses import dataclass
 from html import escape
 
 import panel as pn
-import param
 
 import engine
 
 from .ductility_plot import CURVATURE_SCALE, POINT_LABELS, POINT_NAMES, CurvaturePlot, DuctilityPlot
+from .lazy_tab import LazyTab
 from .plot import LIMIT_KEYS
 from .summary import fmt, messages_html
 from .theme import TEXT_CSS
@@ -137,14 +137,12 @@ def numbers_html(results: DuctilityResults) -> str:
         f'</table>{warnings}<div class="rs-note">{escape(MODEL_NOTE)}</div>')
 
 
-class DuctilityView(pn.viewable.Viewer):
+class DuctilityView(LazyTab, pn.viewable.Viewer):
     """Moment–curvature and μφ against ρ for the inputs `inputs()` returns."""
 
     def __init__(self, inputs: Callable[[], dict], **params) -> None:
         super().__init__(**params)
         self._inputs = inputs
-        self._stale = True
-        self._visible: Callable[[], bool] = lambda: True
         self.results: DuctilityResults | None = None
         self.curvature_plot = CurvaturePlot()
         self.ductility_plot = DuctilityPlot()
@@ -159,17 +157,7 @@ class DuctilityView(pn.viewable.Viewer):
         self._layout = pn.Column(self.message, self.numbers, self.plots,
                                  sizing_mode="stretch_width")
 
-    # -- wiring (as the calculation sheet's) ------------------------------
-
-    def follow(self, source: param.Parameterized, tabs: pn.Tabs | None = None) -> "DuctilityView":
-        """Redraw when any parameter of `source` changes, but only while shown in `tabs`."""
-        names = [name for name in source.param if name != "name"]
-        source.param.watch(self._source_changed, names)
-        if tabs is not None:
-            self._visible = lambda: (0 <= tabs.active < len(tabs.objects)
-                                     and tabs.objects[tabs.active] is self._layout)
-            tabs.param.watch(self._tab_changed, "active")
-        return self
+    # -- wiring ----------------------------------------------------------
 
     @classmethod
     def attach(cls, page, title: str = "Ductility") -> "DuctilityView":
@@ -178,15 +166,6 @@ class DuctilityView(pn.viewable.Viewer):
         view.follow(page, getattr(page, "views", None))  # first: not drawn while hidden
         page.add_view(title, view)
         return view
-
-    def _source_changed(self, *events) -> None:
-        self._stale = True
-        if self._visible():
-            self.refresh()
-
-    def _tab_changed(self, event) -> None:
-        if self._stale and self._visible():
-            self.refresh()
 
     # -- drawing ---------------------------------------------------------
 
