@@ -5,7 +5,9 @@ CSS, no scripts, no outside resources) that prints on one Letter or A4 page:
 a header of user text (project, beam mark, engineer, date), the inputs with
 their units, every step as its equation, the equation with the numbers put
 in and the result, each with its ACI 318-19 clause, the checks, the
-warnings, the caution and the share link with its QR code.
+warnings, with h the curvature ductility μφ, Mcr, Mn/Mcr and the 6.6.5
+redistribution (the engine's moment–curvature values), the caution and the
+share link with its QR code.
 
 It covers every section `engine.check` takes. A singly reinforced rectangle
 with one steel layer is written out in the textbook closed form (a from
@@ -731,6 +733,48 @@ def _checks_section(result: FlexuralCheck) -> str:
             f'</section><section><h2>Warnings</h2>{warnings_html}</section>')
 
 
+def _ductility_section(result: FlexuralCheck) -> str:
+    """μφ, Mcr, Mn/Mcr and the 6.6.5 redistribution; "" without h (moment–curvature needs it).
+
+    μφ is the engine's moment–curvature result (`moment_curvature`), Mcr its
+    24.2.3.5 value: both read from `result`, none computed here.
+    """
+    if result.Mcr is None:
+        return ""
+    M = result.beam.system.moment
+    mu, Mcr, share = result.ductility, result.Mcr, result.redistribution
+    if mu is None:
+        mu_cell = ('<td class="result" data-key="ductility" data-value="none">none: the steel '
+                   'at d<sub>t</sub> does not yield before ε<sub>cu</sub> = 0.003</td>')
+    else:
+        mu_cell = (f'<td class="result" data-key="ductility" data-value="{format_number(mu)}">'
+                   f'{_q(mu, digits=3)}</td>')
+    ratio = result.Mn / Mcr
+    percent = (f"{_q(share.percent, digits=3)} %" if share.permitted else "none")
+    rows = (
+        f'<tr data-step="ductility"><td class="quantity">μ<sub>φ</sub></td>'
+        f'<td class="equation">curvature at ε<sub>cu</sub> = 0.003 / curvature at first yield '
+        f'of d<sub>t</sub></td>{mu_cell}<td class="clause">moment–curvature (no clause)</td></tr>'
+        f'<tr data-step="Mcr"><td class="quantity">M<sub>cr</sub></td>'
+        f'<td class="equation">f<sub>r</sub> I<sub>g</sub> / y<sub>t</sub>, gross section</td>'
+        f'<td class="result" data-key="Mcr" data-value="{format_number(Mcr)}">{_q(Mcr, M)}</td>'
+        f'<td class="clause">24.2.3.5, 19.2.3.1</td></tr>'
+        f'<tr data-step="Mn_over_Mcr"><td class="quantity">{_MN} / M<sub>cr</sub></td>'
+        f'<td class="equation">{_q(result.Mn, M)} / {_q(Mcr, M)} (9.6.1 keeps it above 1)</td>'
+        f'<td class="result" data-key="Mn_over_Mcr" data-value="{format_number(ratio)}">'
+        f'{_q(ratio, digits=3)}</td><td class="clause">9.6.1</td></tr>'
+        f'<tr data-step="redistribution"><td class="quantity">Redistribution</td>'
+        f'<td class="equation">{html.escape(share.reason)}</td>'
+        f'<td class="result" data-key="redistribution_percent" '
+        f'data-value="{format_number(share.percent)}">{percent}</td>'
+        f'<td class="clause">6.6.5</td></tr>')
+    return (f'<section><h2>Ductility (h given)</h2><table class="steps"><tr><th>Quantity</th>'
+            f'<th>Definition</th><th>Result</th><th>ACI 318-19</th></tr>{rows}</table>'
+            f'<p>μ<sub>φ</sub> from the moment–curvature model (parabola-and-line concrete, '
+            f'elastic–plastic steel; no confinement or strain hardening): an aid for judging '
+            f'ductility, not a code check.</p></section>')
+
+
 def _footer(link: str, qr_svg: str | None) -> str:
     """The caution, and the share link printed and as a QR code."""
     caution = f'<p class="caution" data-caution>{html.escape(CAUTION)}</p>'
@@ -777,6 +821,7 @@ def calculation_sheet(
         f'{_steps_table(steps, "Strength (ε<sub>cu</sub> = 0.003, 22.2.2.1)", "strength")}'
         f'{_steps_table(steps, "Reinforcement limits", "limits")}'
         f'{_checks_section(result)}'
+        f'{_ductility_section(result)}'
         f'{_footer(link, qr_svg)}'
         f'</main></body></html>\n'
     )

@@ -9,9 +9,10 @@ modules `js` and `pyodide`, and `pyodide_http`, which the worker loads) and
 builds the page, renders it to Bokeh models, and uses every tab: the check
 (a link with a T section, compression steel and a second layer; a unit switch),
 Size the bars (an option put into the check), the calculation sheet (refresh,
-QR code, download) and the beam schedule (the demo file, checked and
-downloaded). It prints one JSON line {"attempted": [...]} naming every
-blocked module something tried to import, and exits 0 when the tour finished.
+QR code, download), the beam schedule (the demo file, checked and
+downloaded) and Ductility (drawn for the link's section, then in SI). It
+prints one JSON line {"attempted": [...]} naming every blocked module
+something tried to import, and exits 0 when the tour finished.
 """
 
 from __future__ import annotations
@@ -25,6 +26,9 @@ import types
 from pathlib import Path
 
 REPO = Path(__file__).resolve().parent.parent
+# This checkout's packages, not whichever one the environment installed (an editable
+# install of another worktree would otherwise be the one toured).
+sys.path.insert(0, str(REPO))
 
 
 def block(distributions: list[str]) -> list[str]:
@@ -87,6 +91,9 @@ def tour() -> None:
     schedule = (REPO / "tests" / "data" / "harbourline_schedule.csv").read_text(encoding="utf-8")
     asyncio.run(page.schedule_view.run(schedule))
     page.schedule_view._download_file()
+    page.views.active = list(page.views._names).index("Ductility")  # the link above has h
+    if page.ductility_view.results is None:
+        raise SystemExit(f"the Ductility tab drew nothing: {page.ductility_view.message.object}")
     page.unit_switch.value = "si"
     page.views.active = len(page.views) - 1
 

@@ -463,3 +463,42 @@ def test_the_strain_limit_ratio_is_named_by_what_it_is():
                                  date="2025-03-14", link="")
     assert "ρ<sub>max</sub>" not in document and "ρmax" not in document
     assert "ρ at ε<sub>t</sub> = 0.004" in document
+
+
+# The ductility block, with h: the engine's moment–curvature values (engine.moment_curvature).
+@pytest.mark.parametrize("inputs", [
+    pytest.param(dict(units="us", fc=4000, fy=60000, b=14, d=21.5, As=3.16, h=24, Mu=190),
+                 id="B-204-us"),
+    pytest.param(GENERAL["G-4-si-layers"], id="G-4-si-layers"),
+])
+def test_with_h_the_sheet_shows_the_moment_curvature_values(inputs):
+    sheet = parse(calculation_sheet(inputs))
+    expected = engine.moment_curvature(**inputs)
+    assert float(sheet.values["ductility"]) == pytest.approx(expected.ductility, rel=1e-12)
+    assert float(sheet.values["Mcr"]) == pytest.approx(expected.Mcr, rel=1e-12)
+    assert float(sheet.values["Mn_over_Mcr"]) == pytest.approx(expected.Mn_over_Mcr, rel=1e-12)
+    assert float(sheet.values["redistribution_percent"]) == pytest.approx(
+        expected.redistribution.percent, rel=1e-12)
+    assert expected.redistribution.reason in "".join(sheet.text)
+    assert [len(sheet.steps[key]) for key in ("ductility", "Mcr", "Mn_over_Mcr",
+                                               "redistribution")] == [4] * 4
+
+
+def test_b204_mcr_on_the_sheet_is_the_hand_value():
+    # ACI 318-19 24.2.3.5, 19.2.3.1: 7.5√4000 psi × 14·24²/6 in³ = 637,510 lb·in = 53.13 kip·ft.
+    sheet = parse(calculation_sheet(dict(units="us", fc=4000, fy=60000, b=14, d=21.5, As=3.16,
+                                         h=24)))
+    assert float(sheet.values["Mcr"]) == pytest.approx(
+        7.5 * math.sqrt(4000) * 14 * 24**2 / 6 / 12_000, rel=1e-9)
+
+
+def test_without_h_there_is_no_ductility_block_and_without_yield_no_mu():
+    sheet = parse(calculation_sheet(CASES["B-101-us"] | {"h": None}))
+    assert "ductility" not in sheet.values and "Mcr" not in sheet.values
+    # Over-reinforced (ρ = 14/(14·21.5) = 0.047 > ρb = 0.0285): no first yield, so no μφ.
+    over = parse(calculation_sheet(dict(units="us", fc=4000, fy=60000, b=14, d=21.5, As=14,
+                                        h=24)))
+    assert over.values["ductility"] == "none"
+    assert engine.moment_curvature(units="us", fc=4000, fy=60000, b=14, d=21.5, As=14,
+                                   h=24).ductility is None
+    assert over.values["redistribution_percent"] == "0"

@@ -23,6 +23,7 @@ import engine
 
 from . import summary
 from .design_view import SizeBarsView, design_kwargs, matching_option
+from .ductility_view import DuctilityView
 from .plot import CapacityPlot, LimitSweepPlot
 from .schedule_view import ScheduleView
 from .sheet_view import SheetView
@@ -207,6 +208,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         self._redraw_now()
         self.sheet_view = SheetView.attach(self, "Calculation sheet")
         self.schedule_view = ScheduleView.attach(self, "Beam schedule")
+        self.ductility_view = DuctilityView.attach(self, "Ductility")
 
     # -- state -----------------------------------------------------------
 

@@ -35,7 +35,8 @@ MOMENT_TICKS = "0,0.[00]"  # plain numbers with thousands separators, never 1.40
 _HEADROOM = 1.22  # the y range ends this far above the largest moment, for the labels
 
 
-def _style(fig) -> None:
+def style_figure(fig) -> None:
+    """The page's look on a Bokeh figure: no logo, a quiet grid, its font and ink."""
     fig.toolbar.autohide = True
     fig.toolbar.logo = None
     fig.background_fill_color = "#ffffff"
@@ -52,7 +53,7 @@ def _style(fig) -> None:
     fig.title.text_color = INK
 
 
-def _finite(values) -> np.ndarray:
+def finite(values) -> np.ndarray:
     """A float array with infinities (εt at ρ = 0) as NaN, which Bokeh leaves blank."""
     array = np.asarray(values, dtype=float)
     return np.where(np.isfinite(array), array, np.nan)
@@ -75,7 +76,7 @@ class CapacityPlot:
         fig = figure(height=390, sizing_mode="stretch_width", x_range=self.x_range,
                      y_range=self.y_range, tools="pan,wheel_zoom,box_zoom,reset,save",
                      title="Capacity against the tension steel ratio ρ", min_width=320)
-        _style(fig)
+        style_figure(fig)
         fig.xaxis.axis_label = "ρ = As / (b d)"
         fig.xaxis.formatter = NumeralTickFormatter(format="0.000")
         fig.yaxis.formatter = NumeralTickFormatter(format=MOMENT_TICKS)
@@ -160,13 +161,13 @@ class CapacityPlot:
     _curve_top = 0.0
 
     def _show_curve(self, curve: engine.CapacityCurve, system: engine.UnitSystem) -> None:
-        rho = _finite(curve.rho)
-        Mn = _finite(curve.Mn)
+        rho = finite(curve.rho)
+        Mn = finite(curve.Mn)
         self._curve_top = float(np.nanmax(Mn))
         self.x_range.update(start=0.0, end=float(np.nanmax(rho)))
-        self.curve.data = dict(rho=rho, As=_finite(curve.As), Mn=Mn,
-                               phiMn=_finite(curve.phiMn), phi=_finite(curve.phi),
-                               eps_t=_finite(curve.eps_t),
+        self.curve.data = dict(rho=rho, As=finite(curve.As), Mn=Mn,
+                               phiMn=finite(curve.phiMn), phi=finite(curve.phi),
+                               eps_t=finite(curve.eps_t),
                                section_class=list(curve.section_class))
         for key in LIMIT_KEYS:
             mark = curve.marks[key]
@@ -212,7 +213,7 @@ class LimitSweepPlot:
                                                  rho_b=[]))
         fig = figure(height=400, width=320,
                      tools="pan,wheel_zoom,reset", title="Limits against f'c, at this fy")
-        _style(fig)
+        style_figure(fig)
         fig.yaxis.formatter = NumeralTickFormatter(format="0.000")
         fig.yaxis.axis_label = "ρ"
         items = []

@@ -27,6 +27,7 @@ import engine
 from engine.sheet import calculation_sheet
 
 from . import lazy_packages
+from .lazy_tab import LazyTab
 from .summary import messages_html
 from .theme import DOWNLOAD_CSS, TEXT_CSS
 
@@ -64,7 +65,7 @@ def sheet_filename(mark: str) -> str:
     return f"{stem or 'beam'}-calculation-sheet.html"
 
 
-class SheetView(pn.viewable.Viewer):
+class SheetView(LazyTab, pn.viewable.Viewer):
     """The calculation sheet for the inputs `inputs()` returns, reopened by `link()`."""
 
     project = param.String(default="Harbourline Depot", doc="project name (user text)")
@@ -78,8 +79,6 @@ class SheetView(pn.viewable.Viewer):
         super().__init__(**params)
         self._inputs, self._link = inputs, link
         self._qr_for: tuple[str, str | None] | None = None
-        self._stale = True
-        self._visible: Callable[[], bool] = lambda: True
         self.fields = {
             name: pn.widgets.TextInput.from_param(
                 self.param[name], name=label, sizing_mode="stretch_width",
@@ -104,16 +103,6 @@ class SheetView(pn.viewable.Viewer):
 
     # -- wiring ----------------------------------------------------------
 
-    def follow(self, source: param.Parameterized, tabs: pn.Tabs | None = None) -> "SheetView":
-        """Redraw when any parameter of `source` changes, but only while shown in `tabs`."""
-        names = [name for name in source.param if name != "name"]
-        source.param.watch(self._source_changed, names)
-        if tabs is not None:
-            self._visible = lambda: (0 <= tabs.active < len(tabs.objects)
-                                     and tabs.objects[tabs.active] is self._layout)
-            tabs.param.watch(self._tab_changed, "active")
-        return self
-
     @classmethod
     def attach(cls, page, title: str = "Calculation sheet", **params) -> "SheetView":
         """A view of `page`'s check added as the tab `title` (page: current_inputs, share_url, add_view)."""
@@ -121,15 +110,6 @@ class SheetView(pn.viewable.Viewer):
         page.add_view(title, view)
         view.follow(page, getattr(page, "views", None))
         return view
-
-    def _source_changed(self, *events) -> None:
-        self._stale = True
-        if self._visible():
-            self.refresh()
-
-    def _tab_changed(self, event) -> None:
-        if self._stale and self._visible():
-            self.refresh()
 
     @param.depends("project", "mark", "engineer", "date", watch=True)
     def _header_changed(self) -> None:
