@@ -337,7 +337,7 @@ class SizeBarsView:
                        self.span_input, self.support_input, gap="0 6px"),
             pn.FlexBox(self.order_input, self.waiver_input, gap="0 12px", align_items="flex-end"),
             self.message, self.verdict, self.table,
-            pn.Row(self.choice, self.use_button, align="end"),
+            pn.FlexBox(self.choice, self.use_button, align_items="flex-end", gap="0 6px"),
             self.detail,
             sizing_mode="stretch_width", name="Size the bars",
         )

@@ -24,6 +24,8 @@ from .theme import BRONZE, CORAL, FONT, INK, LIMIT_STYLE, MUTED, REGION_STYLE, T
 LIMIT_KEYS = ("rho_min", "rho_tc", "rho_max", "rho_b")
 LIMIT_LABELS = {"rho_min": "ρmin", "rho_tc": "ρtc", "rho_max": "ρ at εt = 0.004",
                 "rho_b": "ρb"}
+# The f'c plot's legend is narrow: the same limits in fewer characters.
+LEGEND_LABELS = {"rho_min": "ρmin", "rho_tc": "ρtc", "rho_max": "ρ(εt=0.004)", "rho_b": "ρb"}
 REGION_NAMES = {
     "below-min": "below ρmin",
     "tension-controlled": "tension-controlled",
@@ -226,7 +228,7 @@ class LimitSweepPlot:
                             line_width=2)
             dots = fig.scatter("fc", key, source=self.source, marker=markers[key], size=6,
                                fill_color="#ffffff", line_color=color)
-            items.append(LegendItem(label=LIMIT_LABELS[key].split(" ")[0],
+            items.append(LegendItem(label=LEGEND_LABELS[key],
                                     renderers=[line, dots]))
             renderers.append(line)
         self.fc_span = Span(location=0, dimension="height", line_color=CORAL,
@@ -260,7 +262,7 @@ class LimitSweepPlot:
             system = engine.unit_system(units)
             self.figure.xaxis.axis_label = f"f'c ({system.stress})"
             self.hover.tooltips = [("f'c", f"@fc{{0.[0]}} {system.stress}")] + [
-                (LIMIT_LABELS[k].split(" ")[0], f"@{k}{{0.00000}}") for k in LIMIT_KEYS]
+                (LEGEND_LABELS[k], f"@{k}{{0.00000}}") for k in LIMIT_KEYS]
         self.fc_span.location = section["fc"]
         self.rho_span.location = result.rho
         self.rho_label.update(x=fc_span[1], y=result.rho)

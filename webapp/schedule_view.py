@@ -134,9 +134,9 @@ class ScheduleView(pn.viewable.Viewer):
                 "naming the columns: " + ", ".join(REQUIRED_COLUMNS) + " (optional: dt, es, "
                 "spiral, h, bf, hf, asc, dc). Decimal points, not commas.</div>",
                 stylesheets=[TEXT_CSS], sizing_mode="stretch_width"),
-            pn.Row(pn.pane.HTML('<div class="rs-note">Upload a CSV file:</div>',
-                                stylesheets=[TEXT_CSS], width=130), self.upload),
-            self.paste, pn.Row(self.run_button, self.download),
+            pn.FlexBox(pn.pane.HTML('<div class="rs-note">Upload a CSV file:</div>',
+                                    stylesheets=[TEXT_CSS], width=130), self.upload),
+            self.paste, pn.FlexBox(self.run_button, self.download),
             self.progress, self.status, self.summary,
             self.table_slot, self.notes,
             sizing_mode="stretch_width")

@@ -94,7 +94,7 @@ class SheetView(LazyTab, pn.viewable.Viewer):
         self.frame = pn.pane.HTML("", sizing_mode="stretch_width", min_height=PREVIEW_HEIGHT,
                                   css_classes=["rs-sheet-frame"], margin=(4, 0))
         self._layout = pn.Column(
-            pn.Row(*self.fields.values(), sizing_mode="stretch_width"),
+            pn.FlexBox(*self.fields.values(), sizing_mode="stretch_width"),
             self.download,
             pn.pane.HTML('<div class="rs-note">One self-contained HTML file: open it and print '
                          'it from the browser (Letter or A4).</div>', stylesheets=[TEXT_CSS],
