@@ -96,3 +96,27 @@ def test_the_page_fits_the_screen(browser, app_url, screenshots, screen):
                 assert box["x"] >= 0 and box["x"] + box["width"] <= width + 1, (index, box)
     finally:
         context.close()
+
+
+TABS = ("Size the bars", "Calculation sheet", "Beam schedule", "Ductility")
+
+
+@pytest.mark.parametrize("screen", ["phone", "tablet"])
+def test_every_tab_fits_the_screen(browser, app_url, screenshots, screen):
+    width, height, mobile = SCREENS[screen]
+    context = browser.new_context(viewport={"width": width, "height": height},
+                                  is_mobile=mobile, has_touch=mobile, device_scale_factor=2)
+    try:
+        page = context.new_page()
+        open_app(page, app_url, LINK + "&h=24")  # with h, the ductility tab draws its plots
+        for tab in TABS:
+            page.locator(".bk-tab", has_text=tab).first.click()
+            page.wait_for_timeout(1500)
+            page.screenshot(path=screenshots / f"21-{tab.replace(' ', '-')}-{width}.png",
+                            full_page=True)
+            sideways = page.evaluate(
+                "document.documentElement.scrollWidth - document.documentElement.clientWidth")
+            assert sideways <= 0, f"{tab}: the page scrolls sideways by {sideways} px"
+            assert page.evaluate(FIND_CLIPPED, width) == [], tab
+    finally:
+        context.close()
