@@ -265,3 +265,16 @@ def test_the_strain_limit_ratio_is_named_by_what_it_is(page):
     assert "ρmax" not in page_text and "ρmax" not in "".join(LIMIT_LABELS.values())
     assert "ρ at εt = 0.004" in page_text and "9.3.3.1" in page_text
     assert LIMIT_LABELS["rho_max"] == "ρ at εt = 0.004"
+
+
+def test_the_demo_is_named_only_while_its_inputs_are_untouched(page):
+    # Beam B-204 of the (fictional) Harbourline Depot is the demo; an edited beam is not it.
+    assert page.demo_note.visible
+    page.unit_switch.value = "si"
+    assert page.demo_note.visible  # the same beam in SI
+    page.sliders["b"].value = 400.0
+    assert not page.demo_note.visible
+    page.apply_link("?units=us&fc=4000&fy=60000&b=14&d=21.5&As=3.16&Mu=190")
+    assert page.demo_note.visible
+    page.mu_input.value = "200"
+    assert not page.demo_note.visible

@@ -31,7 +31,7 @@ from .sketch import SectionSketch, section_drawing
 from .location_guard import page_location
 from .state import (DEFAULTS, INPUT_FIELDS, MAX_EXTRA_LAYERS, NUMBER_FIELDS, QUANTITY,
                     SECTION_DEFAULTS, SLIDER_SPANS, Inputs, convert_inputs, default_inputs,
-                    parse_query, rounded_inputs, slab_flange_width, unit_label)
+                    is_demo, parse_query, rounded_inputs, slab_flange_width, unit_label)
 from .number_box import number_box, read_number, shown_number, shows
 from .widget_sync import ServerSetValues, resend_values
 from .theme import ENTRY_CSS, SIDEBAR_CSS, TEXT_CSS
@@ -50,6 +50,7 @@ SECTION_ENTRIES = (("h", "h, overall depth"), ("dt", "dt, extreme layer"),
                    ("asc", "A's, compression steel"), ("dc", "d', depth to A's"),
                    ("es", "Es, steel modulus"))
 SPIRAL_OPTIONS = {"Ties or other": False, "Spirals": True}  # transverse steel, Table 21.2.2
+DEMO_NOTE = '<div class="rs-note" data-q="demo">Demo: Harbourline Depot, beam B-204</div>'
 SETTLE_MS = 300  # quiet time after the last input before every widget is re-sent its value
 LOG = logging.getLogger(__name__)
 OTHER_FIELDS = tuple(f for f in INPUT_FIELDS if f not in ("units",) + NUMBER_FIELDS)
@@ -176,6 +177,8 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.capacity_plot = CapacityPlot()
         self.sweep_plot = LimitSweepPlot()
         self.sketch = SectionSketch()
+        # Named only while the demo's own inputs are on screen: an edited beam is not B-204.
+        self.demo_note = pn.pane.HTML(DEMO_NOTE, stylesheets=[TEXT_CSS], margin=(0, 10))
         self.sketch_note = pn.pane.HTML("", stylesheets=[TEXT_CSS], width=300, margin=(0, 8))
         self.plot_note = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
                                       margin=(0, 8))
@@ -477,6 +480,7 @@ class BeamCheckPage(pn.viewable.Viewer):
             finally:
                 self._applying = False
         inputs = self.inputs()
+        self.demo_note.visible = is_demo(inputs)
         self._sync_section_widgets(inputs)
         self.flange_note.object = self._flange_note(inputs)
         if self.refusals:
@@ -817,9 +821,9 @@ class BeamCheckPage(pn.viewable.Viewer):
 
     def __panel__(self):
         sidebar = pn.Column(
-            pn.pane.HTML('<h3 style="margin:4px 0">Beam section</h3>'
-                         '<div class="rs-note">Demo: Harbourline Depot, beam B-204</div>',
-                         stylesheets=[TEXT_CSS], margin=(4, 10)),
+            pn.pane.HTML('<h3 style="margin:4px 0">Beam section</h3>', stylesheets=[TEXT_CSS],
+                         margin=(4, 10, 0, 10)),
+            self.demo_note,
             self.unit_switch,
             self.quantity_inputs,
             self.section_card,

@@ -158,6 +158,13 @@ def default_inputs(units: str = "us") -> Inputs:
     return Inputs(units=units, **DEFAULTS[units])
 
 
+def is_demo(inputs: Inputs) -> bool:
+    """Whether `inputs` are the demo beam untouched, in either unit system (a switch included)."""
+    other = "si" if inputs.units == "us" else "us"
+    return inputs in (default_inputs(inputs.units),
+                      rounded_inputs(convert_inputs(default_inputs(other), inputs.units)))
+
+
 def convert_inputs(inputs: Inputs, units: str) -> Inputs:
     """`inputs` expressed in `units`, each value converted by the engine (not rounded).
 
