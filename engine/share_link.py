@@ -16,8 +16,10 @@ they never change the check itself: `shape` (rect, T, L), `sw` and `ln`
 (the slab geometry bf was found from, ACI 318-19 Table 6.3.2.1), and the
 bar-sizing inputs `cover`, `stirrup`, `agg`, `nlayers` (1 or 2), `span`,
 `support`, `order` (practical or lightest; absent: practical), `waiver` (1:
-the 9.6.1.3 waiver of As,min allowed; absent: not) and `bars` (the chosen
-arrangement, BAR:COUNTS such as `#8:4,2`).
+the 9.6.1.3 waiver of As,min allowed; absent: not), `bars` (the chosen
+arrangement, BAR:COUNTS such as `#8:4,2`) and `drawn` (the bars as drawn, one
+COUNTxBAR entry a tension layer, the first layer first and blank for a layer
+given by its area, such as `4x9,,2x8`; each sets its layer's area exactly).
 
 Example: ``?units=us&fc=4000&fy=60000&b=12&d=21.5&As=3.16&Mu=180``.
 """
@@ -42,7 +44,7 @@ CHECK_KEYS = ("units",) + NUMBER_KEYS + ("layers", "spiral")
 """The `engine.check` keywords a link carries (`layers` travels as repeated `layer`)."""
 PAGE_NUMBER_KEYS = ("sw", "ln", "cover", "agg", "span")
 PAGE_KEYS = ("shape", "sw", "ln", "cover", "stirrup", "agg", "nlayers", "span", "support", "order",
-             "waiver", "bars")
+             "waiver", "bars", "drawn")
 KEYS = ("units",) + NUMBER_KEYS + ("layer", "spiral") + PAGE_KEYS
 """Every key of the query, in the order `share_query` writes them."""
 SHAPES = ("rect", "T", "L")
@@ -51,6 +53,7 @@ MAX_FIELDS = 64  # query fields read at all; the rest of a huge query is ignored
 # What a link may carry for a number: the decimal forms `format_number` writes
 # and people type; no "nan", "inf", underscores, hexadecimal or non-ASCII digits.
 _DESIGNATION = re.compile(r"#?[0-9]{1,2}")
+_DRAWN = re.compile(r"([0-9]{1,3}x[0-9]{1,2})?")
 _BARS = re.compile(r"(#?[0-9]{1,2}):([0-9]{1,3}(?:,[0-9]{1,3}){0,3})")
 _TRUE, _FALSE = ("1", "true", "yes", "on"), ("0", "false", "no", "off")
 _SHAPE_WORDS = {"rect": "rect", "rectangle": "rect", "r": "rect", "t": "T", "l": "L"}
@@ -242,6 +245,13 @@ def _value(key: str, text: str) -> object:
         return lowered
     if key == "nlayers":
         return int(stripped) if stripped in ("1", "2") else _refuse(key, text, "1 or 2")
+    if key == "drawn":
+        # The bars as drawn, one entry a tension layer (the first layer first), blank
+        # for a layer given as an area: "4x9,,2x8". Sizes are checked with the units.
+        if not all(_DRAWN.fullmatch(item) for item in stripped.split(",")):
+            _refuse(key, text, "COUNTxBAR for each tension layer, such as 4x9,2x8 "
+                               "(blank for a layer given by its area)")
+        return stripped
     if key == "bars":
         match = _BARS.fullmatch(stripped)
         if match is None:

@@ -96,7 +96,7 @@ def test_compression_steel_and_a_second_layer_reach_the_engine(page):
     kinds = page.sketch.bars.data["kind"]
     assert "compression" in kinds and len({y for y, k in zip(page.sketch.bars.data["y"], kinds)
                                            if k == "tension"}) == 2
-    page.layer_rows[1][2].clicks += 1  # remove the layer
+    page.layer_rows[1][3].clicks += 1  # remove the layer (area, depth, bars, ✕)
     assert page.layers == ()
 
 

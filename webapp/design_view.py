@@ -63,8 +63,10 @@ def option_key(option) -> str:
 def option_inputs(inputs, option, h: float) -> dict:
     """The check inputs that `option` sets: its layers (bottom first), h and its key."""
     (As, d), *upper = option.arrangement.steel_layers
+    bar_number = option.arrangement.bar.number
     return {"As": As, "d": d, "layers": tuple(upper), "dt": None, "h": h,
-            "bars": option_key(option)}
+            "bars": option_key(option),
+            "drawn": tuple(f"{count}x{bar_number}" for count in option.arrangement.per_layer)}
 
 
 def matching_option(result: engine.DesignResult | None, inputs):

@@ -20,6 +20,7 @@ import panel as pn
 import param
 
 import engine
+from engine.bar_groups import bar_group
 
 from . import summary
 from .design_view import SizeBarsView, design_kwargs, matching_option
@@ -31,7 +32,8 @@ from .sketch import SectionSketch, section_drawing
 from .location_guard import page_location
 from .state import (DEFAULTS, INPUT_FIELDS, MAX_EXTRA_LAYERS, NUMBER_FIELDS, QUANTITY,
                     SECTION_DEFAULTS, SLIDER_SPANS, Inputs, convert_inputs, default_inputs,
-                    is_demo, parse_query, rounded_inputs, slab_flange_width, unit_label)
+                    drawn_groups, is_demo, parse_query, rounded_inputs, same_group,
+                    slab_flange_width, unit_label, with_drawn_areas, without_stale_drawn)
 from .number_box import number_box, read_number, shown_number, shows
 from .widget_sync import ServerSetValues, resend_values
 from .theme import ENTRY_CSS, SIDEBAR_CSS, TEXT_CSS
@@ -125,6 +127,7 @@ class BeamCheckPage(pn.viewable.Viewer):
     order = param.String(default=None, allow_None=True, doc="bar options' ranking; None: practical")
     waiver = param.Boolean(default=False, doc="9.6.1.3 may stand in for As,min in bar sizing")
     bars = param.String(default=None, allow_None=True, doc="chosen arrangement, e.g. #8:4,2")
+    drawn = param.Parameter(default=(), doc="bars as drawn per tension layer, e.g. ('4x9', None)")
     es = param.Number(default=None, allow_None=True,
                       doc="Es in psi or MPa; None: ACI 318-19 20.2.2.2's value")
     spiral = param.Boolean(default=False, doc="spiral transverse reinforcement (φ, Table 21.2.2)")
@@ -294,6 +297,10 @@ class BeamCheckPage(pn.viewable.Viewer):
                                "value")
             slider.param.watch(self._on_settled, "value_throttled")
             self.sliders[name] = slider
+        self.bars_input = pn.widgets.TextInput(
+            label="As as bars drawn (count and size)", placeholder="e.g. 4 #9" if units == "us"
+            else "e.g. 4 No. 25", sizing_mode="stretch_width", css_classes=["rs-input-bars"])
+        self.bars_input.param.watch(lambda event: self._on_bars(0, units, event.new), "value")
         self.mu_input = number_box(self._label("Mu", units), inputs.Mu, "rs-input-Mu",
                                    placeholder="none", sizing_mode="stretch_width")
         self.mu_input.param.watch(lambda event: self._on_typed("Mu", units, event.new), "value")
@@ -306,7 +313,7 @@ class BeamCheckPage(pn.viewable.Viewer):
                               "value")
             self.entries[name] = entry
         self._label_entries(units)
-        self.quantity_inputs.objects = [*self.sliders.values(), self.mu_input]
+        self.quantity_inputs.objects = [*self.sliders.values(), self.bars_input, self.mu_input]
         self.flange_entries.objects = [pn.Row(self.entries["bf"], self.entries["hf"]),
                                        pn.Row(self.entries["sw"], self.entries["ln"])]
         self.depth_entries.objects = [pn.Row(self.entries["h"], self.entries["dt"]),
@@ -455,7 +462,7 @@ class BeamCheckPage(pn.viewable.Viewer):
                    *self.entries.values(), self.spiral_switch, self.shape_switch,
                    self.flange_source]
         for row in self.layer_rows.objects[1:]:
-            if isinstance(row, pn.Row):
+            if isinstance(row, (pn.Row, pn.FlexBox)):
                 widgets += [box for box in row.objects if isinstance(box, pn.widgets.TextInput)]
         return widgets + self.size_bars.input_widgets()
 
@@ -480,6 +487,12 @@ class BeamCheckPage(pn.viewable.Viewer):
             finally:
                 self._applying = False
         inputs = self.inputs()
+        current = without_stale_drawn(inputs)
+        if current.drawn != inputs.drawn:
+            with param.discard_events(self):
+                self.drawn = current.drawn  # an area was changed away from its bars
+            inputs = current
+        self._show_bars(inputs)
         self.demo_note.visible = is_demo(inputs)
         self._sync_section_widgets(inputs)
         self.flange_note.object = self._flange_note(inputs)
@@ -732,6 +745,56 @@ class BeamCheckPage(pn.viewable.Viewer):
         finally:
             self._applying = False
 
+    def _on_bars(self, index: int, units: str, text: str) -> None:
+        """Bars typed for tension layer `index` (0: the first, the As slider's)."""
+        if self._applying:
+            return
+        self._input_count += 1
+        field = "As bars" if index == 0 else f"layer {index + 1} bars"
+        self._last_edited = field
+        inputs = self.inputs()
+        drawn = list(drawn_groups(inputs))
+        try:
+            group = None if not text.strip() else bar_group(field, text,
+                                                             engine.unit_system(units))
+            if group is not None and units != self.units:  # a box built before a switch
+                group = bar_group(field, same_group(group, engine.unit_system(units),
+                                                    engine.unit_system(self.units)),
+                                  engine.unit_system(self.units))
+        except engine.InputError as error:
+            self.refusals = {**self.refusals, field: error}
+            return
+        if field in self.refusals:
+            self.refusals = {key: error for key, error in self.refusals.items() if key != field}
+        if index >= len(drawn):
+            return  # the layer was removed while the text was on its way
+        drawn[index] = group
+        texts = tuple(None if g is None else g.link_text for g in drawn)
+        new = with_drawn_areas(replace(inputs, drawn=texts if any(texts) else ()))
+        self.set_inputs(As=new.As, layers=new.layers, drawn=new.drawn, bars=None)
+
+    def _show_bars(self, inputs: Inputs) -> None:
+        """Each bars box shows its layer's bars as drawn (blank: the area was typed)."""
+        groups = drawn_groups(inputs)
+        boxes = [self.bars_input] + [row.objects[2] for row in self.layer_rows.objects[1:]
+                                     if isinstance(row, (pn.Row, pn.FlexBox)) and len(row.objects) > 3]
+        fields = ["As bars"] + [f"layer {index + 2} bars" for index in range(len(boxes) - 1)]
+        self._applying = True
+        try:
+            for box, group, field in zip(boxes, groups, fields):
+                text = "" if group is None else group.text
+                if field not in self.refusals and box.value != text:
+                    box.value = text
+        finally:
+            self._applying = False
+        total = inputs.As + sum(area for area, _ in inputs.layers)
+        label = self._label("As", inputs.units)
+        if inputs.layers:  # the slider is one layer's: say so, and give the total beside it
+            label = (f"As, layer 1 of {1 + len(inputs.layers)} ({unit_label(inputs.units, 'As')});"
+                     f" total {summary.fmt(total)}")
+        if self.sliders["As"].name != label:
+            self.sliders["As"].name = label
+
     def _first_layer_text(self, inputs: Inputs) -> str:
         system = engine.unit_system(inputs.units)
         return (f'<div class="rs-note" data-q="layer_1">1: As = {summary.fmt(inputs.As)} '
@@ -761,7 +824,15 @@ class BeamCheckPage(pn.viewable.Viewer):
                                        description="remove this layer",
                                        css_classes=[f"rs-layer-{index + 2}-remove"])
             remove.on_click(lambda event, i=index: self._remove_layer(i))
-            rows.append(pn.Row(area_box, depth_box, remove, margin=0))
+            if new:
+                rows.append(pn.Row(area_box, depth_box, remove, margin=0))
+                continue
+            bars_box = pn.widgets.TextInput(label="or bars", placeholder="e.g. 2 #8"
+                                            if units == "us" else "e.g. 2 No. 25", width=90,
+                                            css_classes=[f"rs-layer-{index + 2}-bars"])
+            bars_box.param.watch(lambda e, i=index: self._on_bars(i + 1, units, e.new), "value")
+            rows.append(pn.FlexBox(area_box, depth_box, bars_box, remove, margin=0,
+                                   gap="0 4px"))
         if self._draft_layer is not None:
             rows.append(pn.pane.HTML(
                 f'<div class="rs-note" data-q="new_layer">Layer {len(shown) + 1}: type its area '

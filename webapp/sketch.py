@@ -21,6 +21,7 @@ from bokeh.plotting import figure
 
 import engine
 
+from .state import drawn_groups
 from .theme import BRONZE, CORAL, FONT, INK, MUTED, TEAL
 
 # Drawing allowances when the inputs do not say (common practice): h = dt + 2.5 in
@@ -90,6 +91,7 @@ def section_drawing(inputs, result: engine.FlexuralCheck, arrangement=None,
     stirrup = (inner, bw - inner, inner, h - inner, stirrup_bar.db)
     bars = {"x": [], "y": [], "r": [], "kind": []}
     schematic = arrangement is None
+    drawn: tuple = ()
     if arrangement is not None:
         side = cover + stirrup_bar.db
         for count, depth in zip(arrangement.per_layer, arrangement.layer_depths):
@@ -97,8 +99,13 @@ def section_drawing(inputs, result: engine.FlexuralCheck, arrangement=None,
     else:
         nominal = engine.bar("bar", bar_name, system)
         side = cover + stirrup_bar.db
-        for area, depth in layers:
-            count, db = _schematic_bars(area, nominal, bw - 2 * side, system)
+        drawn = drawn_groups(inputs)
+        schematic = None in drawn
+        for (area, depth), group in zip(layers, drawn):
+            if group is None:
+                count, db = _schematic_bars(area, nominal, bw - 2 * side, system)
+            else:  # the bars as entered: their count and their nominal diameter
+                count, db = group.count, group.bar.db
             _row(bars, count, db, side, bw - side, h - depth, "tension")
     if inputs.asc is not None and inputs.dc is not None:
         count, db = _schematic_bars(inputs.asc, engine.bar("bar", _NOMINAL[units][2], system),
@@ -106,8 +113,15 @@ def section_drawing(inputs, result: engine.FlexuralCheck, arrangement=None,
         _row(bars, count, db, cover + stirrup_bar.db, bw - cover - stirrup_bar.db,
              h - inputs.dc, "compression")
     L = system.length
-    if schematic:
-        note = (f"Bars schematic: each layer drawn as evenly spaced bars of its area. "
+    if arrangement is None and any(drawn):
+        entered = "; ".join(f"layer {index}: {group.text}" if group else
+                            f"layer {index}: schematic (area typed)"
+                            for index, group in enumerate(drawn, start=1))
+        note = (f"Bars as entered ({entered}), evenly spaced. Cover {cover:g} {L} to a "
+                f"{stirrup_bar.designation} stirrup assumed.")
+    elif schematic:
+        note = (f"Bars schematic: each layer drawn as evenly spaced bars of its area "
+                f"(type the bars, e.g. 4 #9, to draw them as built). "
                 f"Cover {cover:g} {L} to a {stirrup_bar.designation} stirrup assumed.")
     else:
         note = (f"Bars as arranged: {arrangement.count} {arrangement.bar.designation}, "

@@ -20,6 +20,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field, fields, replace
 
 import engine
+from engine.bar_groups import BarGroup, bar_group
 from engine.share_link import KEYS, MAX_FIELDS, format_number, read_share_query, share_query
 
 NUMBER_FIELDS = ("fc", "fy", "b", "d", "As", "Mu")
@@ -110,6 +111,9 @@ class Inputs:
     order: str | None = None  # ranking of the bar options; None: the engine's (practical)
     waiver: bool = False  # let 9.6.1.3 (As ≥ 4/3 As,req) stand in for As,min
     bars: str | None = field(default=None)
+    # The bars as drawn, one entry a tension layer (the first layer first): COUNTxBAR
+    # ("4x9") or None for a layer given by its area; () for none given at all.
+    drawn: tuple[str | None, ...] = ()
     es: float | None = None
     spiral: bool = False
 
@@ -146,7 +150,9 @@ class Inputs:
                 "cover": self.cover, "stirrup": self.stirrup, "agg": self.agg,
                 "nlayers": self.nlayers, "span": self.span, "support": self.support,
                 "order": self.order, "waiver": True if self.waiver else None,
-                "bars": self.bars}
+                "bars": self.bars,
+                "drawn": ",".join(group or "" for group in self.drawn) if any(self.drawn)
+                else None}
 
     def to_query(self) -> str:
         """The query string (with its leading "?") that reproduces these inputs."""
@@ -181,11 +187,56 @@ def convert_inputs(inputs: Inputs, units: str) -> Inputs:
     values["layers"] = tuple((convert(area, "area"), convert(depth, "length"))
                              for area, depth in inputs.layers)
     values["stirrup"] = _same_bar(inputs.stirrup, source, target)
+    values["drawn"] = tuple(None if group is None else same_group(group, source, target)
+                            for group in drawn_groups(inputs)) if inputs.drawn else ()
     if inputs.bars is not None:
         designation, _, counts = inputs.bars.partition(":")
         converted = _same_bar(designation, source, target)
         values["bars"] = None if converted is None else f"{converted}:{counts}"
-    return replace(inputs, units=target.name, **values)
+    return with_drawn_areas(replace(inputs, units=target.name, **values))
+
+
+def drawn_groups(inputs: Inputs) -> tuple[BarGroup | None, ...]:
+    """One entry a tension layer (the first layer first): its bars as drawn, or None."""
+    if not inputs.drawn:
+        return (None,) * (1 + len(inputs.layers))
+    system = engine.unit_system(inputs.units)
+    return tuple(None if text is None else bar_group("drawn", text, system)
+                 for text in inputs.drawn)
+
+
+def with_drawn_areas(inputs: Inputs) -> Inputs:
+    """`inputs` with each layer that has bars as drawn given exactly their area."""
+    groups = drawn_groups(inputs)
+    if not any(groups):
+        return inputs
+    as_area = inputs.As if groups[0] is None else groups[0].area
+    layers = tuple((area if group is None else group.area, depth)
+                   for (area, depth), group in zip(inputs.layers, groups[1:]))
+    return replace(inputs, As=as_area, layers=layers)
+
+
+def without_stale_drawn(inputs: Inputs) -> Inputs:
+    """`inputs` without the bars of a layer whose area was changed away from them."""
+    groups = drawn_groups(inputs)
+    if not any(groups) or len(groups) != 1 + len(inputs.layers):
+        return replace(inputs, drawn=()) if inputs.drawn else inputs
+    areas = (inputs.As,) + tuple(area for area, _ in inputs.layers)
+    kept = tuple(None if group is None or not _same_area(group.area, area) else group.link_text
+                 for group, area in zip(groups, areas))
+    return replace(inputs, drawn=kept if any(kept) else ())
+
+
+def _same_area(a: float, b: float) -> bool:
+    # Bars set their layer's area exactly; a difference past float noise is an edit.
+    return abs(a - b) <= 1e-9 * max(abs(a), abs(b))
+
+
+def same_group(group: BarGroup, source, target) -> str | None:
+    """`group` as the same bars in the `target` system ("4x9" -> "4x29"); None if none."""
+    designation = _same_bar(group.bar.designation, source, target)
+    return None if designation is None else bar_group("drawn", f"{group.count}x{designation}",
+                                                      target).link_text
 
 
 SWITCH_FIGURES = 6  # significant figures a unit switch keeps: 14 in -> 355.6 mm, not 355.59999999999997
@@ -326,7 +377,8 @@ def parse_query(search: str) -> tuple[Inputs, tuple[str, ...]]:
         kwargs = _try(units, kwargs, {"asc": values["asc"], "dc": values["dc"]}, messages,
                       "asc", "The compression steel is left out.")
     design = _design_settings(units, kwargs, values, messages)
-    inputs = Inputs(units=units, shape=shape or "rect",
+    drawn = _drawn(units, values.get("drawn"), kwargs, messages)
+    inputs = Inputs(units=units, shape=shape or "rect", drawn=drawn,
                     **{k: (tuple(v) if k == "layers" else v) for k, v in kwargs.items()
                        if k != "units"}, **design)
     if inputs.flanged and flange.get("sw") is not None:
@@ -340,6 +392,37 @@ def parse_query(search: str) -> tuple[Inputs, tuple[str, ...]]:
                         f"using the default section.")
         inputs = default_inputs(units)
     return inputs, tuple(messages)
+
+
+def _drawn(units: str, text: str | None, kwargs: dict, messages: list) -> tuple:
+    """The link's bars as drawn, each kept only where it gives its layer's area exactly."""
+    if not text:
+        return ()
+    entries = text.split(",")
+    areas = [kwargs["As"]] + [area for area, _ in kwargs.get("layers", ())]
+    if len(entries) != len(areas):
+        messages.append(f"drawn: {_shown(text)} gives bars for {len(entries)} tension layers; "
+                        f"the section has {len(areas)}. The bars as drawn are left out; the "
+                        f"areas are used.")
+        return ()
+    system = engine.unit_system(units)
+    kept = []
+    for index, (entry, area) in enumerate(zip(entries, areas), start=1):
+        group = None
+        if entry:
+            try:
+                group = bar_group(f"drawn (layer {index})", entry, system)
+            except engine.InputError as error:
+                messages.append(f"{error}. Layer {index}'s bars are left out; its area is used.")
+            else:
+                if not _same_area(group.area, area):
+                    messages.append(
+                        f"drawn (layer {index}): {group.text} is {format_number(group.area)} "
+                        f"{system.area}, not the layer's area {format_number(area)} "
+                        f"{system.area}. The bars are left out; the area is used.")
+                    group = None
+        kept.append(None if group is None else group.link_text)
+    return tuple(kept) if any(kept) else ()
 
 
 def _flange(units: str, shape: str, kwargs: dict, values: dict, messages: list) -> dict:
