@@ -150,11 +150,14 @@ def test_sketch_caption_says_when_h_is_assumed(page):
     # Default B-204 gives no h: the sketch draws it 2.5 in below dt = d = 21.5 in
     # (the drawing allowance, common practice), and must not present 24 in as an input.
     assert page.h is None
-    assert page.sketch.size_label.text == "h not given (drawn 24 in)"
+    # The dimension labels: b under the section, h on the left, d on the right.
+    assert page.sketch.dims.data["text"] == ["b = 14 in", "h not given (drawn 24 in)",
+                                             "d = 21.5 in"]
     page.apply_link(T_LINK)  # h = 24 in given
-    assert page.sketch.size_label.text == "h = 24 in"
+    assert page.sketch.dims.data["text"][1] == "h = 24 in"
     page.apply_link("?units=si")  # SI B-204: d = 545 mm, drawn 63 mm below (common practice)
-    assert page.sketch.size_label.text == "h not given (drawn 608 mm)"
+    assert page.sketch.dims.data["text"] == ["b = 350 mm", "h not given (drawn 608 mm)",
+                                             "d = 545 mm"]
 
 
 def _strains_by_hand(c: float, depths) -> list[float]:

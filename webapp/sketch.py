@@ -14,9 +14,10 @@ bottom face, in the section's length unit.
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
-from bokeh.models import ColumnDataSource, DataRange1d, Label
+from bokeh.models import ColumnDataSource, DataRange1d, LabelSet
 from bokeh.plotting import figure
 
 import engine
@@ -48,6 +49,8 @@ class Drawing:
     width: float
     schematic: bool
     note: str
+    b: float = 0.0  # the web width, dimensioned under the section
+    d: float = 0.0  # the first tension layer's depth, dimensioned on the right
 
 
 def section_drawing(inputs, result: engine.FlexuralCheck, arrangement=None,
@@ -131,7 +134,7 @@ def section_drawing(inputs, result: engine.FlexuralCheck, arrangement=None,
     return Drawing(outline_x=xs, outline_y=ys, block_x=bx, block_y=by, stirrup=stirrup,
                    bars=bars, c=r["c"], a=a, h=h, h_given=inputs.h is not None,
                    width=right - left, schematic=schematic,
-                   note=note)
+                   note=note, b=bw, d=inputs.d)
 
 
 def _schematic_bars(area: float, nominal, room: float, system) -> tuple[int, float]:
@@ -165,6 +168,9 @@ class SectionSketch:
         self.bars = ColumnDataSource(data=dict(x=[], y=[], r=[], kind=[], color=[]),
                                      name="sketch-bars")
         self.axis = ColumnDataSource(data=dict(x0=[], x1=[], y=[]), name="sketch-axis")
+        # Dimension lines with their labels: b under the web, h on the left, d on the right.
+        self.dims = ColumnDataSource(data=dict(x0=[], y0=[], x1=[], y1=[], lx=[], ly=[],
+                                               text=[], angle=[]), name="sketch-dims")
         fig = figure(width=300, height=390, match_aspect=True, tools="pan,wheel_zoom,reset",
                      title="Section to scale", x_range=DataRange1d(range_padding=0.12),
                      y_range=DataRange1d(range_padding=0.12), name="sketch")
@@ -187,9 +193,11 @@ class SectionSketch:
                     line_width=2, line_dash="dashed")
         fig.circle(x="x", y="y", radius="r", source=self.bars, fill_color="color",
                    line_color=INK, line_width=1)
-        self.size_label = Label(x=0, y=0, text="", text_font_size="11.5px", text_color=INK,
-                                y_offset=-18, text_align="center")
-        fig.add_layout(self.size_label)
+        fig.segment(x0="x0", y0="y0", x1="x1", y1="y1", source=self.dims, line_color=MUTED,
+                    line_width=1)
+        fig.add_layout(LabelSet(x="lx", y="ly", text="text", angle="angle", source=self.dims,
+                                text_font_size="11.5px", text_color=INK, text_align="center",
+                                text_baseline="middle"))
         self.figure = fig
         self.drawing: Drawing | None = None
 
@@ -208,7 +216,19 @@ class SectionSketch:
         c_y = drawing.h - drawing.c
         self.axis.data = dict(x0=[x0 - 0.04 * drawing.width], x1=[x1 + 0.04 * drawing.width],
                               y=[c_y])
-        shown = f"{drawing.h:.4g} {L}"
-        self.size_label.update(x=(x0 + x1) / 2, y=0,
-                               text=f"h = {shown}" if drawing.h_given
-                               else f"h not given (drawn {shown})")
+        self.dims.data = dimension_lines(drawing, L)
+
+
+def dimension_lines(drawing: Drawing, length_unit: str) -> dict:
+    """The sketch's dimension lines and labels: b below, h on the left, d on the right."""
+    x0, x1 = min(drawing.outline_x), max(drawing.outline_x)
+    gap = 0.09 * max(drawing.width, drawing.h)
+    h_text = (f"h = {drawing.h:.4g} {length_unit}" if drawing.h_given
+              else f"h not given (drawn {drawing.h:.4g} {length_unit})")
+    return dict(
+        x0=[0.0, x0 - gap, x1 + gap], x1=[drawing.b, x0 - gap, x1 + gap],
+        y0=[-gap, 0.0, drawing.h], y1=[-gap, drawing.h, drawing.h - drawing.d],
+        lx=[drawing.b / 2, x0 - 1.6 * gap, x1 + 1.6 * gap],
+        ly=[-1.7 * gap, drawing.h / 2, drawing.h - drawing.d / 2],
+        text=[f"b = {drawing.b:.4g} {length_unit}", h_text, f"d = {drawing.d:.4g} {length_unit}"],
+        angle=[0.0, math.pi / 2, math.pi / 2])
