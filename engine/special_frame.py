@@ -100,7 +100,7 @@ class SpecialFrameCheck:
     checks: tuple[CodeCheck, ...]
     not_checked: tuple[NotChecked, ...]
     warnings: tuple[str, ...]
-    strength_basis: str = "nominal (Mn, φ not applied)"
+    strength_basis: str = "nominal, φ not applied"
     out_of_scope: str = OUT_OF_SCOPE
 
     @property
