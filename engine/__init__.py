@@ -16,6 +16,8 @@ from .moment_curvature import (CurvaturePoint, DuctilitySweep, MomentCurvature, 
                                ductility_sweep, ductility_sweep_for_beam, moment_curvature)
 from .redistribution import Redistribution
 from .section import BeamSection, Flange, Role, SteelLayer, beam_section, rectangular_beam
+from .special_frame import (NotChecked, SpecialFrameCheck, special_frame_check,
+                            special_frame_for_beam)
 from .strength_reduction import SectionClass
 from .units import SI, US, UnitSystem, convert, unit_system
 
@@ -24,10 +26,12 @@ __version__ = "0.1.0"
 __all__ = [
     "CAUTION", "Arrangement", "Bar", "BarOption", "BeamSection", "CapacityCurve", "CodeCheck",
     "CurvaturePoint", "DesignResult", "DesignSection", "DuctilitySweep", "Exposure", "FailedRule",
-    "Flange", "FlexuralCheck", "InputError", "MomentCurvature", "Order", "Redistribution", "RhoscopeError",
-    "Role", "SI", "SectionClass", "SteelLayer", "Support", "US", "UnitSystem", "arrange", "bar",
+    "Flange", "FlexuralCheck", "InputError", "MomentCurvature", "NotChecked", "Order",
+    "Redistribution", "RhoscopeError", "Role", "SI", "SectionClass", "SpecialFrameCheck",
+    "SteelLayer", "Support", "US", "UnitSystem", "arrange", "bar",
     "beam_section", "capacity_curve", "check", "check_beam", "convert", "curvature_for_beam",
     "curve_for_beam", "design_section", "detailing_checks", "ductility_sweep",
     "ductility_sweep_for_beam", "effective_flange_width", "moment_curvature", "rectangular_beam",
+    "special_frame_check", "special_frame_for_beam",
     "standard_bars", "unit_system",
 ]

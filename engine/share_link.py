@@ -20,6 +20,10 @@ the 9.6.1.3 waiver of As,min allowed; absent: not), `bars` (the chosen
 arrangement, BAR:COUNTS such as `#8:4,2`) and `drawn` (the bars as drawn, one
 COUNTxBAR entry a tension layer, the first layer first and blank for a layer
 given by its area, such as `4x9,,2x8`; each sets its layer's area exactly).
+`frame` (1: the beam is checked as part of a special moment frame,
+`engine.special_frame_check`; absent: not) with the top steel `top_As` at
+`top_d` (from the bottom face), which add checks and never change the
+flexural check itself.
 
 Example: ``?units=us&fc=4000&fy=60000&b=12&d=21.5&As=3.16&Mu=180``.
 """
@@ -42,9 +46,9 @@ from .validation import decimal_text
 NUMBER_KEYS = ("fc", "fy", "b", "d", "As", "Mu", "dt", "es", "h", "bf", "hf", "asc", "dc")
 CHECK_KEYS = ("units",) + NUMBER_KEYS + ("layers", "spiral")
 """The `engine.check` keywords a link carries (`layers` travels as repeated `layer`)."""
-PAGE_NUMBER_KEYS = ("sw", "ln", "cover", "agg", "span")
+PAGE_NUMBER_KEYS = ("sw", "ln", "cover", "agg", "span", "top_As", "top_d")
 PAGE_KEYS = ("shape", "sw", "ln", "cover", "stirrup", "agg", "nlayers", "span", "support", "order",
-             "waiver", "bars", "drawn")
+             "waiver", "bars", "drawn", "frame", "top_As", "top_d")
 KEYS = ("units",) + NUMBER_KEYS + ("layer", "spiral") + PAGE_KEYS
 """Every key of the query, in the order `share_query` writes them."""
 SHAPES = ("rect", "T", "L")
@@ -222,7 +226,7 @@ def _value(key: str, text: str) -> object:
     if key == "units":
         return stripped.lower() if stripped.lower() in ("us", "si") else _refuse(
             key, text, "'us' or 'si'")
-    if key in ("spiral", "waiver"):
+    if key in ("spiral", "waiver", "frame"):
         lowered = stripped.lower()
         if lowered not in _TRUE + _FALSE:
             _refuse(key, text, "1 or 0 (true or false)")
@@ -292,7 +296,7 @@ def _page_text(key: str, value: object) -> str:
         if value not in (1, 2) or isinstance(value, bool):
             raise InputError(key, value, "1 or 2")
         return str(int(value))
-    if key == "waiver":
+    if key in ("waiver", "frame"):
         if not isinstance(value, bool):
             raise InputError(key, value, "true or false")
         return "1" if value else "0"

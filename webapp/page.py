@@ -50,7 +50,9 @@ SECTION_ENTRIES = (("h", "h, overall depth"), ("dt", "dt, extreme layer"),
                    ("bf", "bf, flange width"), ("hf", "hf, flange thickness"),
                    ("sw", "sw, clear web spacing"), ("ln", "ln, clear span"),
                    ("asc", "A's, compression steel"), ("dc", "d', depth to A's"),
-                   ("es", "Es, steel modulus"))
+                   ("es", "Es, steel modulus"), ("top_As", "top As, top steel"),
+                   ("top_d", "top d, from bottom face"))
+FRAME_OPTIONS = {"Ordinary": False, "Special moment frame": True}
 SPIRAL_OPTIONS = {"Ties or other": False, "Spirals": True}  # transverse steel, Table 21.2.2
 DEMO_NOTE = '<div class="rs-note" data-q="demo">Demo: Harbourline Depot, beam B-204</div>'
 SETTLE_MS = 300  # quiet time after the last input before every widget is re-sent its value
@@ -131,6 +133,9 @@ class BeamCheckPage(pn.viewable.Viewer):
     es = param.Number(default=None, allow_None=True,
                       doc="Es in psi or MPa; None: ACI 318-19 20.2.2.2's value")
     spiral = param.Boolean(default=False, doc="spiral transverse reinforcement (φ, Table 21.2.2)")
+    frame = param.Boolean(default=False, doc="a beam of a special moment frame (ACI 318-19 Ch. 18)")
+    top_As = param.Number(default=None, allow_None=True, doc="top steel, for the frame checks")
+    top_d = param.Number(default=None, allow_None=True, doc="its depth from the bottom face")
     link_messages = param.List(default=[], doc="problems with the opened link's values")
     refusals = param.Dict(default={}, doc="typed text that could not be read, by field: its error")
 
@@ -162,6 +167,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.quantity_inputs = pn.Column(sizing_mode="stretch_width", margin=0)
         self.flange_entries = pn.Column(sizing_mode="stretch_width", margin=0)
         self.depth_entries = pn.Column(sizing_mode="stretch_width", margin=0)
+        self.frame_entries = pn.Column(sizing_mode="stretch_width", margin=0)
         self._build_quantity_inputs(self.units)
         self.copy_button = pn.widgets.Button(label="Copy link", color="primary",
                                              sizing_mode="stretch_width")
@@ -176,6 +182,8 @@ class BeamCheckPage(pn.viewable.Viewer):
                                   margin=(4, 8))
         self.details = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
                                     margin=(4, 12))
+        self.frame_pane = pn.pane.HTML("", stylesheets=[TEXT_CSS], sizing_mode="stretch_width",
+                                       margin=(4, 12))
         self._build_section_widgets()
         self.capacity_plot = CapacityPlot()
         self.sweep_plot = LimitSweepPlot()
@@ -197,7 +205,8 @@ class BeamCheckPage(pn.viewable.Viewer):
                                  self.sketch_note, width=310),
                        flex_wrap="wrap", sizing_mode="stretch_width"),
             pn.FlexBox(pn.pane.Bokeh(self.sweep_plot.figure, width=320),
-                       pn.Column(self.details, sizing_mode="stretch_width", min_width=300,
+                       pn.Column(self.details, self.frame_pane, sizing_mode="stretch_width",
+                                 min_width=300,
                                  styles={"flex": "1 1 320px"}),
                        flex_wrap="wrap", sizing_mode="stretch_width"),
             sizing_mode="stretch_width")
@@ -316,6 +325,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.quantity_inputs.objects = [*self.sliders.values(), self.bars_input, self.mu_input]
         self.flange_entries.objects = [pn.Row(self.entries["bf"], self.entries["hf"]),
                                        pn.Row(self.entries["sw"], self.entries["ln"])]
+        self.frame_entries.objects = [pn.Row(self.entries["top_As"], self.entries["top_d"])]
         self.depth_entries.objects = [pn.Row(self.entries["h"], self.entries["dt"]),
                                       pn.Row(self.entries["asc"], self.entries["dc"]),
                                       pn.Row(self.entries["es"])]
@@ -459,7 +469,8 @@ class BeamCheckPage(pn.viewable.Viewer):
     def input_widgets(self) -> list:
         """Every widget of the page that holds an input."""
         widgets = [self.unit_switch, *self.sliders.values(), self.mu_input,
-                   *self.entries.values(), self.spiral_switch, self.shape_switch,
+                   *self.entries.values(), self.spiral_switch, self.frame_switch,
+                   self.shape_switch,
                    self.flange_source]
         for row in self.layer_rows.objects[1:]:
             if isinstance(row, (pn.Row, pn.FlexBox)):
@@ -516,6 +527,11 @@ class BeamCheckPage(pn.viewable.Viewer):
                         lambda: setattr(self.cards, "object", summary.cards_html(result)))
         self._details_markup = ""
         self._draw_view("the table of values", self.details, lambda: self._draw_details(result))
+        self.frame_pane.object = ""
+        if inputs.frame:
+            self._draw_view("the special moment frame checks", self.frame_pane,
+                            lambda: setattr(self.frame_pane, "object", summary.frame_html(
+                                engine.special_frame_check(**inputs.special_frame_kwargs()))))
         self.plot_note.object = ""
         self._draw_view("the capacity plot", self.plot_note, lambda: self.capacity_plot.update(
             self._curve(inputs, result), result))
@@ -613,6 +629,15 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.flange_box = pn.Column(
             self.flange_source, self.flange_entries, self.flange_note,
             sizing_mode="stretch_width", margin=0, visible=False)
+        self.frame_switch = pn.widgets.RadioButtonGroup(
+            options=FRAME_OPTIONS, value=self.frame, sizing_mode="stretch_width",
+            css_classes=["rs-input-frame"])
+        self.frame_switch.param.watch(self._on_frame, "value")
+        self.frame_box = pn.Column(
+            pn.pane.HTML('<div class="rs-note">Top steel for the negative-moment checks '
+                         '(18.6.3.1, 18.6.3.2); its depth is measured from the bottom face.'
+                         '</div>', stylesheets=[TEXT_CSS], margin=(0, 10)),
+            self.frame_entries, sizing_mode="stretch_width", margin=0, visible=False)
         self.section_card = pn.Card(
             self.shape_switch, self.flange_box, self.depth_entries,
             pn.pane.HTML('<div class="rs-note">Transverse reinforcement (φ, ACI 318-19 '
@@ -623,6 +648,9 @@ class BeamCheckPage(pn.viewable.Viewer):
                          '(As in the results is their total, d their centroid).</div>',
                          stylesheets=[TEXT_CSS], margin=(0, 10)),
             self.layer_rows, self.add_layer_button, self.layer_note,
+            pn.pane.HTML('<div class="rs-note">Frame (ACI 318-19 Chapter 18)</div>',
+                         stylesheets=[TEXT_CSS], margin=(0, 10)),
+            self.frame_switch, self.frame_box,
             title="Section shape, A's and layers", collapsed=False,
             sizing_mode="stretch_width", margin=(4, 6), css_classes=["rs-section-card"])
 
@@ -637,6 +665,12 @@ class BeamCheckPage(pn.viewable.Viewer):
             return
         self._input_count += 1
         self.set_inputs(spiral=bool(event.new))
+
+    def _on_frame(self, event) -> None:
+        if self._applying or event.new == self.frame:
+            return
+        self._input_count += 1
+        self.set_inputs(frame=bool(event.new))
 
     def _on_shape(self, event) -> None:
         if self._applying or event.new == self.shape:
@@ -725,6 +759,8 @@ class BeamCheckPage(pn.viewable.Viewer):
                 if name not in self.refusals and not shows(entry, value):
                     entry.value = shown_number(value)
             self.spiral_switch.value = inputs.spiral
+            self.frame_switch.value = inputs.frame
+            self.frame_box.visible = inputs.frame
             self.entries["bf"].disabled = slab
             self.entries["sw"].visible = self.entries["ln"].visible = slab
             full = len(inputs.layers) >= MAX_EXTRA_LAYERS

@@ -7,7 +7,8 @@ and for other sections `dt`, `h`, `shape` (rect, T, L) with `bf` and `hf`
 `layer=AREA@DEPTH` per extra tension layer; the bar-sizing inputs `cover`,
 `stirrup`, `agg`, `nlayers`, `span`, `support`, `order` (the ranking of the
 options), `waiver` (the 9.6.1.3 waiver allowed), and `bars` (the chosen
-arrangement). Numbers are written in the shortest form that reads back to
+arrangement); `frame` (the special moment frame checks, `engine.special_frame_check`)
+with the top steel `top_As` at `top_d` (from the bottom face). Numbers are written in the shortest form that reads back to
 the same float, so opening a link reproduces the check exactly.
 
 Parsing never raises: a value that does not read, or that the engine
@@ -28,7 +29,8 @@ QUERY_KEYS = KEYS
 QUANTITY = {"fc": "stress", "fy": "stress", "b": "length", "d": "length", "As": "area",
             "Mu": "moment", "dt": "length", "h": "length", "bf": "length", "hf": "length",
             "sw": "length", "ln": "length", "asc": "area", "dc": "length", "cover": "length",
-            "agg": "length", "span": "length", "es": "stress"}
+            "agg": "length", "span": "length", "es": "stress", "top_As": "area",
+            "top_d": "length"}
 UNIT_NAMES = ("us", "si")
 SHAPES = ("rect", "T", "L")
 
@@ -83,6 +85,9 @@ class Inputs:
     counts only when `shape` is "T" or "L"; when `sw` and `ln` are set, `bf`
     was found from them. `cover` ... `bars` are the bar-sizing inputs (None:
     the engine's default); `bars` names the chosen arrangement ("#8:4,2").
+    `frame` adds the special moment frame checks (ACI 318-19 18.6.3, 18.6.5,
+    20.2.2.5) with the top steel `top_As` at `top_d`, its depth from the
+    bottom face (None: not given, and the top checks are listed as not made).
     """
 
     units: str
@@ -116,6 +121,9 @@ class Inputs:
     drawn: tuple[str | None, ...] = ()
     es: float | None = None
     spiral: bool = False
+    frame: bool = False
+    top_As: float | None = None
+    top_d: float | None = None
 
     @property
     def flanged(self) -> bool:
@@ -142,6 +150,15 @@ class Inputs:
         del kwargs["Mu"]
         return kwargs
 
+    def special_frame_kwargs(self) -> dict | None:
+        """Keyword arguments for `engine.special_frame_check`, or None when `frame` is off."""
+        if not self.frame:
+            return None
+        kwargs = self.section_kwargs()
+        if self.top_As is not None and self.top_d is not None:
+            kwargs.update(top_As=self.top_As, top_d=self.top_d)
+        return kwargs
+
     def settings(self) -> dict:
         """The link's page keys for these inputs (None: left out)."""
         flanged = self.shape in ("T", "L")
@@ -152,7 +169,9 @@ class Inputs:
                 "order": self.order, "waiver": True if self.waiver else None,
                 "bars": self.bars,
                 "drawn": ",".join(group or "" for group in self.drawn) if any(self.drawn)
-                else None}
+                else None,
+                "frame": True if self.frame else None,
+                "top_As": self.top_As, "top_d": self.top_d}
 
     def to_query(self) -> str:
         """The query string (with its leading "?") that reproduces these inputs."""
@@ -391,7 +410,37 @@ def parse_query(search: str) -> tuple[Inputs, tuple[str, ...]]:
         messages.append(f"{error}. These values do not make a section together; "
                         f"using the default section.")
         inputs = default_inputs(units)
-    return inputs, tuple(messages)
+    unreadable = {problem.field for problem in reading.problems}
+    return _frame_settings(inputs, values, unreadable, messages), tuple(messages)
+
+
+def _frame_settings(inputs: Inputs, values: dict, unreadable: set, messages: list) -> Inputs:
+    """`inputs` with the link's `frame` and top steel, the top steel judged by the engine.
+
+    A top steel value the link reader could not read has its message already; its
+    partner is then left out without a second one.
+    """
+    top_As, top_d = values.get("top_As"), values.get("top_d")
+    if unreadable & {"top_As", "top_d"}:
+        top_As = top_d = None
+    elif (top_As is None) != (top_d is None):
+        missing = "top_d" if top_d is None else "top_As"
+        messages.append(f"{missing}: missing; the top steel needs both top_As and top_d. "
+                        f"The top steel is left out.")
+        top_As = top_d = None
+    elif top_As is not None:
+        try:
+            engine.special_frame_check(**inputs.section_kwargs(), top_As=top_As, top_d=top_d)
+        except engine.InputError as error:
+            name = error.field if error.field in ("top_As", "top_d") else "top_As"
+            value = top_As if name == "top_As" else top_d
+            messages.append(_rejected(name, value, error, "The top steel is left out."))
+            top_As = top_d = None
+        except ArithmeticError:
+            messages.append("top_As: the engine cannot compute this top steel. "
+                            "The top steel is left out.")
+            top_As = top_d = None
+    return replace(inputs, frame=bool(values.get("frame")), top_As=top_As, top_d=top_d)
 
 
 def _drawn(units: str, text: str | None, kwargs: dict, messages: list) -> tuple:
@@ -549,6 +598,8 @@ def _fallback(units: str, name: str) -> str:
         return f"Using {format_number(DEFAULTS[units][name])} {unit_label(units, name)}."
     if name.startswith("layer"):
         return "This layer is left out."
+    if name in ("top_As", "top_d"):
+        return "The top steel is left out."
     return "Using the default."
 
 
@@ -582,4 +633,5 @@ def _shown(raw: str) -> str:
     return repr(text)
 
 
-INPUT_FIELDS = tuple(f.name for f in fields(Inputs))
+FRAME_FIELDS = ("frame", "top_As", "top_d")
+INPUT_FIELDS = tuple(f.name for f in fields(Inputs))  # the page holds each as a parameter

@@ -243,3 +243,34 @@ def messages_html(messages: tuple[str, ...] | list[str], css: str = "") -> str:
     """Plain-text messages as escaped boxes ("" for none)."""
     return "".join(f'<div class="rs-msg {css}" data-q="message">{escape(text)}</div>'
                    for text in messages)
+
+
+def frame_html(frame: engine.SpecialFrameCheck) -> str:
+    """The special moment frame checks (ACI 318-19 Chapter 18) as a block of the Check tab."""
+    r = frame.to_dict()
+    system = engine.unit_system(r["units"])
+    moment = escape(system.moment)
+    rows = "".join(
+        f'<tr><td class="{"pass" if item["passed"] else "fail"}">'
+        f'{"✔ pass" if item["passed"] else "✘ fail"}</td><td>{escape(item["clause"])}</td>'
+        f'<td>{escape(item["title"])}</td><td>{escape(item["detail"])}</td></tr>'
+        for item in r["checks"])
+    rows += "".join(
+        f'<tr><td class="fail">— not checked</td><td>{escape(item["clause"])}</td>'
+        f'<td>{escape(item["title"])}</td><td>{escape(item["reason"])}</td></tr>'
+        for item in r["not_checked"])
+    probable = (f"Mpr+ = {_q('Mpr_pos', fmt(r['Mpr_pos']))} {moment}"
+                + ("" if r["Mpr_neg"] is None else
+                   f" · Mpr− = {_q('Mpr_neg', fmt(r['Mpr_neg']))} {moment}"))
+    verdict = ("✔ the section checks of Chapter 18 pass" if r["ok"] else
+               "✘ not all section checks of Chapter 18 pass or could be made")
+    warnings = "".join(f"<li>{escape(text)}</li>" for text in r["warnings"])
+    return (f'<div data-q="frame"><h3>Special moment frame (ACI 318-19 Chapter 18)</h3>'
+            f'<div class="rs-mark {"pass" if r["ok"] else "fail"}" data-q="frame_verdict">'
+            f'{verdict}</div>'
+            f'<table><tr><th>result</th><th>clause</th><th>requirement</th><th>detail</th></tr>'
+            f'{rows}</table>'
+            f'<div class="rs-note">Probable strength (18.6.5: 1.25 fy, φ = 1.0): {probable}. '
+            f'18.6.3.2 compares {escape(r["strength_basis"])}.</div>'
+            + (f'<ul class="rs-note">{warnings}</ul>' if warnings else "")
+            + f'<div class="rs-note">{escape(r["out_of_scope"])}</div></div>')

@@ -9,6 +9,7 @@ import math
 from ..checks import CAUTION, FlexuralCheck, check
 from ..curve import DEFAULT_POINTS, capacity_curve
 from ..errors import InputError
+from ..special_frame import SpecialFrameCheck, special_frame_check
 from .arguments import add_section_flags, parse_float, section_inputs
 
 
@@ -16,6 +17,13 @@ def register(commands) -> None:
     check_parser = commands.add_parser("check", help="check one section")
     add_section_flags(check_parser)
     check_parser.add_argument("--mu", metavar="F", help="Mu, factored moment (kip·ft or kN·m)")
+    check_parser.add_argument("--special-frame", action="store_true",
+                              help="add the checks of a special moment frame beam "
+                                   "(ACI 318-19 18.6.3, 18.6.5, 20.2.2.5; one section only)")
+    check_parser.add_argument("--top-as", metavar="F",
+                              help="top steel area, for --special-frame (with --top-d)")
+    check_parser.add_argument("--top-d", metavar="F",
+                              help="top steel depth from the bottom face (d for negative moment)")
     check_parser.set_defaults(run=run_check)
     curve_parser = commands.add_parser("curve", help="capacity against ρ, for a plot")
     add_section_flags(curve_parser)
@@ -25,8 +33,22 @@ def register(commands) -> None:
 
 
 def run_check(args: argparse.Namespace) -> str:
+    top = {"top_As": parse_float("top_As", args.top_as), "top_d": parse_float("top_d", args.top_d)}
+    if not args.special_frame:
+        given = next((name for name, value in top.items() if value is not None), None)
+        if given is not None:
+            raise InputError(given, getattr(args, given.lower()), "--special-frame with it",
+                             why="the top steel is used only by the special frame checks")
     result = check(**section_inputs(args), Mu=parse_float("Mu", args.mu))
-    return json.dumps(result.to_dict(), ensure_ascii=False) if args.json else summary(result)
+    frame = None
+    if args.special_frame:
+        frame = special_frame_check(**section_inputs(args), **top)
+    if args.json:
+        data = result.to_dict()
+        if frame is not None:
+            data["special_frame"] = frame.to_dict()
+        return json.dumps(data, ensure_ascii=False)
+    return summary(result, frame)
 
 
 def run_curve(args: argparse.Namespace) -> str:
@@ -44,8 +66,8 @@ def _ratio(rho: float) -> str:
     return "not reachable" if math.isinf(rho) else f"{rho:.5f}"
 
 
-def summary(result: FlexuralCheck) -> str:
-    """A readable, plain-text account of one check."""
+def summary(result: FlexuralCheck, frame: SpecialFrameCheck | None = None) -> str:
+    """A readable, plain-text account of one check, and of the special frame checks if given."""
     beam, s, lim = result.beam, result.state, result.limits
     u = beam.system
     shape = "Rectangular section" if beam.flange is None else (
@@ -80,5 +102,34 @@ def summary(result: FlexuralCheck) -> str:
     lines += [f"  [{'PASS' if c.passed else 'FAIL'}] {c.clause} {c.title}: {c.detail}"
               for c in result.checks]
     lines += [f"  warning: {w}" for w in result.warnings]
+    if frame is not None:
+        lines += ["", *frame_summary(frame)]
     lines += ["", CAUTION]
     return "\n".join(lines)
+
+
+def frame_summary(frame: SpecialFrameCheck) -> list[str]:
+    """The special moment frame checks as lines of text."""
+    u = frame.beam.system
+    top = frame.negative_beam
+    lines = [
+        "Special moment frame beam, one section (ACI 318-19 18.6.3, 18.6.5, 20.2.2.5)",
+        f"  bottom: As = {frame.beam.As:.4g} {u.area}   ρ = {frame.rho_bottom:.5f}"
+        f"   As,min = {frame.As_min_bottom.value:.4g} {u.area}",
+        (f"  top: As = {top.As:.4g} {u.area} at d = {top.d:g} {u.length} from the bottom face"
+         f"   ρ = {frame.rho_top:.5f}   As,min = {frame.As_min_top.value:.4g} {u.area}"
+         if top is not None else "  top: not given (--top-as, --top-d)"),
+        f"  Mn+ = {frame.Mn_pos:.4g} {u.moment}"
+        + ("" if frame.Mn_neg is None else f"   Mn− = {frame.Mn_neg:.4g} {u.moment}")
+        + f"   ({frame.strength_basis})",
+        f"  Mpr+ = {frame.Mpr_pos:.4g} {u.moment}"
+        + ("" if frame.Mpr_neg is None else f"   Mpr− = {frame.Mpr_neg:.4g} {u.moment}")
+        + "   (1.25 fy, φ = 1.0; ACI 318-19 2.3, 18.6.5.1)",
+        "",
+    ]
+    lines += [f"  [{'PASS' if c.passed else 'FAIL'}] {c.clause} {c.title}: {c.detail}"
+              for c in frame.checks]
+    lines += [f"  [NOT CHECKED] {n.clause} {n.title}: {n.reason}" for n in frame.not_checked]
+    lines += [f"  warning: {w}" for w in frame.warnings]
+    lines += [f"  out of scope: {frame.out_of_scope}"]
+    return lines
