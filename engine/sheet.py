@@ -32,10 +32,12 @@ User text is always escaped, never rendered as HTML.
 from __future__ import annotations
 
 import html
+import ipaddress
 import math
 import re
 from collections.abc import Mapping
 from dataclasses import dataclass
+from urllib.parse import urlsplit
 
 from .checks import CAUTION, FlexuralCheck, check
 from .equilibrium import in_block, layer_force
@@ -591,6 +593,9 @@ def _checked_svg(svg: str) -> str:
     return text
 
 
+# Words break only between words (no hyphenation, no break-all), so "compression" stays one
+# word in a narrow cell; only user text and the link, which may hold no space at all, break
+# anywhere (`overflow-wrap: anywhere` on every cell shrank columns until words split).
 _CSS = """
 * { box-sizing: border-box; }
 body { font: 9.5pt/1.3 "DejaVu Sans", "Segoe UI", Arial, sans-serif; color: #111; margin: 0; }
@@ -602,11 +607,12 @@ table { border-collapse: collapse; width: 100%; }
 th, td { text-align: left; vertical-align: top; padding: 0.4mm 1.2mm;
          border-bottom: 0.1mm solid #ccc; }
 th { font-weight: 600; background: #eee; }
-td { overflow-wrap: anywhere; }
+th, td { overflow-wrap: normal; word-break: normal; hyphens: manual; }
+.header td.value, .url { overflow-wrap: anywhere; }
 .header td { border: none; padding: 0.2mm 1.2mm; }
 .label { color: #444; width: 1%; white-space: nowrap; }
 .steps td.result { font-weight: 600; min-width: 22mm; }
-.steps td.clause { color: #333; overflow-wrap: normal; }
+.steps td.clause { color: #333; }
 .steps td.quantity { width: 14mm; }
 .pass { color: #0a5d1e; font-weight: 700; }
 .fail { color: #a40e0e; font-weight: 700; }
@@ -617,6 +623,7 @@ td { overflow-wrap: anywhere; }
 .footer > div { flex: 1; }
 .caution { border: 0.3mm solid #555; padding: 1mm 1.5mm; margin: 0 0 1mm; }
 .link { margin: 0; }
+.reach { margin: 0.5mm 0 0; font-weight: 600; }
 .url { font-family: "DejaVu Sans Mono", monospace; font-size: 85%; overflow-wrap: anywhere; }
 .footer svg { width: 24mm; height: 24mm; flex: none; }
 section, table, tr, .footer { page-break-inside: avoid; break-inside: avoid; }
@@ -634,12 +641,26 @@ h2 { page-break-after: avoid; break-after: avoid; }
 """
 
 
-def _header(project: object, mark: object, engineer: object, date: object) -> str:
-    cells = [f'<td class="label">{label}</td><td data-field="{field}">{user_text(value)}</td>'
+BLANK = "________________"
+"""What the sheet prints for a header field left empty: a line to fill in by hand."""
+
+
+def _field_text(value: object, limit: int = 2000) -> str:
+    """User text for a header field, or the blank line when there is none."""
+    text = user_text(value, limit=limit)
+    return text if text.strip() else BLANK
+
+
+def _header(project: object, mark: object, engineer: object, checked_by: object,
+            date: object) -> str:
+    cells = [f'<td class="label">{label}:</td><td class="value" data-field="{field}">'
+             f'{_field_text(value)}</td>'
              for label, field, value in (("Project", "project", project), ("Beam mark", "mark", mark),
-                                         ("Engineer", "engineer", engineer), ("Date", "date", date))]
+                                         ("Engineer", "engineer", engineer),
+                                         ("Checked by", "checked_by", checked_by),
+                                         ("Date", "date", date))]
     return (f'<table class="header"><tr>{cells[0]}{cells[1]}</tr>'
-            f'<tr>{cells[2]}{cells[3]}</tr></table>')
+            f'<tr>{cells[2]}{cells[3]}</tr><tr>{cells[4]}<td></td><td></td></tr></table>')
 
 
 def _inputs_table(result: FlexuralCheck) -> str:
@@ -775,15 +796,54 @@ def _ductility_section(result: FlexuralCheck) -> str:
             f'ductility, not a code check.</p></section>')
 
 
+_LOOPBACK_NAMES = ("localhost", "localhost.localdomain")
+
+
+def link_reach(link: str) -> str | None:
+    """What a reader must know about where `link` opens, or None when it opens anywhere.
+
+    A page served on this machine (localhost, 127.0.0.0/8, ::1) writes links
+    that open only on the machine that served them; a private LAN address
+    (RFC 1918, fc00::/7, link-local) only inside that network. The sheet
+    prints the note beside the link and the QR code, so nobody files a code
+    that will not scan to the check.
+    """
+    try:
+        host = (urlsplit(link).hostname or "").rstrip(".").lower()
+    except ValueError:  # a malformed address ("http://[::1") is still printed, as text
+        return None
+    if not host:
+        return None
+    if host in _LOOPBACK_NAMES or host.endswith(".localhost"):
+        address = None
+        loopback = True
+    else:
+        try:
+            address = ipaddress.ip_address(host)
+        except ValueError:
+            return None  # a name: assumed to resolve wherever the reader is
+        loopback = address.is_loopback or address.is_unspecified
+    if loopback:
+        return (f"This link and QR code open only on the computer that served the page "
+                f"({host}); on any other device they lead nowhere. Serve or publish the page "
+                f"at a shared address to give others a link that works.")
+    if address is not None and (address.is_private or address.is_link_local):
+        return (f"This link and QR code point to a private network address ({host}): they "
+                f"open only on a device inside that network.")
+    return None
+
+
 def _footer(link: str, qr_svg: str | None) -> str:
-    """The caution, and the share link printed and as a QR code."""
+    """The caution, and the share link printed and as a QR code (with where it opens)."""
     caution = f'<p class="caution" data-caution>{html.escape(CAUTION)}</p>'
     if not link:
         return f'<section class="footer"><div>{caution}</div></section>'
     qr = _checked_svg(qr_svg) if qr_svg else '<p class="no-qr">(no QR code)</p>'
+    reach = link_reach(link)
+    reach_html = f'<p class="reach" data-reach>{html.escape(reach)}</p>' if reach else ""
     return (f'<section class="footer"><div>{caution}<p class="link"><strong>Reopen this check:'
-            f'</strong> <span class="url">{user_text(link, limit=8000)}</span></p></div>'
-            f'{qr}</section>')
+            f'</strong> <span class="url">{user_text(link, limit=8000)}</span></p>{reach_html}'
+            f'</div>{qr}</section>')
 
 
 def calculation_sheet(
@@ -792,6 +852,7 @@ def calculation_sheet(
     project: object = "",
     mark: object = "",
     engineer: object = "",
+    checked_by: object = "",
     date: object = "",
     link: str = "",
     qr_svg: str | None = None,
@@ -801,7 +862,9 @@ def calculation_sheet(
 
     `inputs` are `engine.check`'s keywords (any of `SHEET_INPUTS`; None
     means not given); bad inputs raise `InputError` as `check` does.
-    `project`, `mark`, `engineer` and `date` are user text, shown escaped.
+    `project`, `mark`, `engineer`, `checked_by` and `date` are user text,
+    shown escaped; one left empty prints as a blank line (`BLANK`) to fill
+    in by hand, so no sheet goes out under a name nobody typed.
     `link` is the share link (see `share_link.share_url`), printed as text;
     `qr_svg` its QR code as one inline <svg> element (the engine makes none:
     it has no dependencies), refused with `InputError` if it holds scripts
@@ -816,7 +879,7 @@ def calculation_sheet(
         f'<title>{page_title} · calculation sheet</title><style>{_CSS}</style></head>'
         f'<body><main>'
         f'<h1>{html.escape(title)} calculation sheet</h1><p>{heading}</p>'
-        f'{_header(project, mark, engineer, date)}'
+        f'{_header(project, mark, engineer, checked_by, date)}'
         f'<section><h2>Inputs</h2>{_inputs_table(result)}</section>'
         f'{_steps_table(steps, "Strength (ε<sub>cu</sub> = 0.003, 22.2.2.1)", "strength")}'
         f'{_steps_table(steps, "Reinforcement limits", "limits")}'

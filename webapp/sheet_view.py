@@ -68,9 +68,10 @@ def sheet_filename(mark: str) -> str:
 class SheetView(LazyTab, pn.viewable.Viewer):
     """The calculation sheet for the inputs `inputs()` returns, reopened by `link()`."""
 
-    project = param.String(default="Harbourline Depot", doc="project name (user text)")
-    mark = param.String(default="B-204", doc="beam mark (user text)")
+    project = param.String(default="", doc="project name (user text); blank prints a line")
+    mark = param.String(default="", doc="beam mark (user text); blank prints a line")
     engineer = param.String(default="", doc="who made the check (user text)")
+    checked_by = param.String(default="", doc="who checked it (user text)")
     date = param.String(default="", doc="date of the check (user text; default today)")
     document = param.String(default="", doc="the last sheet made, one HTML document")
 
@@ -79,12 +80,17 @@ class SheetView(LazyTab, pn.viewable.Viewer):
         super().__init__(**params)
         self._inputs, self._link = inputs, link
         self._qr_for: tuple[str, str | None] | None = None
+        # The placeholders show the form of an entry in grey; the sheet prints a
+        # blank line for a field left empty, never the example.
         self.fields = {
             name: pn.widgets.TextInput.from_param(
-                self.param[name], name=label, sizing_mode="stretch_width",
-                css_classes=[f"rs-sheet-{name}"])
-            for name, label in (("project", "Project"), ("mark", "Beam mark"),
-                                ("engineer", "Engineer"), ("date", "Date"))}
+                self.param[name], name=label, placeholder=example, sizing_mode="stretch_width",
+                css_classes=[f"rs-sheet-{name.replace('_', '-')}"])
+            for name, label, example in (
+                ("project", "Project", "e.g. Harbourline Depot"),
+                ("mark", "Beam mark", "e.g. B-204"), ("engineer", "Engineer", "your name"),
+                ("checked_by", "Checked by", "the checker's name"),
+                ("date", "Date", "YYYY-MM-DD"))}
         self.download = pn.widgets.FileDownload(
             callback=self._download_file, filename=sheet_filename(self.mark),
             label="Download sheet (HTML)", color="primary", stylesheets=[DOWNLOAD_CSS],
@@ -111,7 +117,7 @@ class SheetView(LazyTab, pn.viewable.Viewer):
         view.follow(page, getattr(page, "views", None))
         return view
 
-    @param.depends("project", "mark", "engineer", "date", watch=True)
+    @param.depends("project", "mark", "engineer", "checked_by", "date", watch=True)
     def _header_changed(self) -> None:
         self.download.filename = sheet_filename(self.mark)
         self._stale = True
@@ -137,7 +143,8 @@ class SheetView(LazyTab, pn.viewable.Viewer):
         """The calculation sheet for the current inputs; `engine.InputError` if they are bad."""
         link = self._link()
         return calculation_sheet(self._inputs(), project=self.project, mark=self.mark,
-                                 engineer=self.engineer, date=self.date, link=link,
+                                 engineer=self.engineer, checked_by=self.checked_by,
+                                 date=self.date, link=link,
                                  qr_svg=self._qr(link))
 
     def refresh(self) -> None:

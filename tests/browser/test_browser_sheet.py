@@ -92,7 +92,7 @@ def test_download_is_self_contained_and_shows_the_engines_phimn(page, app_url, t
     phiMn = engine.check(**B204).phiMn
     assert f'data-key="phiMn" data-value="{format_number(phiMn)}"' in document
     link = re.search(r'<span class="url">([^<]*)</span>', document).group(1).replace("&amp;", "&")
-    assert document == calculation_sheet(B204, project="Harbourline Depot", mark="B-204",
+    assert document == calculation_sheet(B204, mark="B-204",
                                          engineer="R. Ortega",
                                          date=re.search(r'data-field="date">([^<]*)<',
                                                         document).group(1),
