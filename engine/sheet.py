@@ -1,13 +1,16 @@
 """The calculation sheet: one check written out for filing, as one HTML page.
 
 `calculation_sheet` returns a complete, self-contained HTML document (inline
-CSS, no scripts, no outside resources) that prints on one Letter or A4 page:
-a header of user text (project, beam mark, engineer, date), the inputs with
-their units, every step as its equation, the equation with the numbers put
-in and the result, each with its ACI 318-19 clause, the checks, the
-warnings, with h the curvature ductility μφ, Mcr, Mn/Mcr and the 6.6.5
-redistribution (the engine's moment–curvature values), the caution and the
-share link with its QR code.
+CSS, no scripts, no outside resources) that prints on two Letter or A4
+pages, each headed by the project, beam mark, date and "page N of 2": a
+header of user text (project, beam mark, engineer, checked by, date; a blank
+line where none was typed), the inputs with their units and the bars as
+placed beside the section drawn to scale (`section_drawing`), every step as
+its equation, the equation with the numbers put in and the result, each
+with its ACI 318-19 clause, the checks, the warnings, with h the curvature
+ductility μφ, Mcr, Mn/Mcr and the 6.6.5 redistribution (the engine's
+moment–curvature values), the caution and the share link with its QR code
+(and, for a link to this machine or a private network, where it opens).
 
 It covers every section `engine.check` takes. A singly reinforced rectangle
 with one steel layer is written out in the textbook closed form (a from
@@ -46,7 +49,9 @@ from .limits import AS_MIN_COEFFICIENTS, forces_at_strain
 from .materials import BETA1_TABLE, EPS_CU, steel_stress
 from .section import BeamSection, Role
 from .stress_block import block_force, compressed_area
-from .share_link import format_number
+from .number_text import significant
+from .section_drawing import section_svg
+from .share_link import format_number, read_bars
 from .units import UnitSystem, unit_system
 
 SHEET_INPUTS = ("units", "fc", "fy", "b", "d", "As", "dt", "es", "Mu", "spiral", "h", "bf", "hf",
@@ -85,17 +90,6 @@ class SheetStep:
     clause: str
     keyed_result: bool = False
     group: str = "strength"
-
-
-def significant(value: float, digits: int = 4) -> str:
-    """`value` in fixed notation to `digits` significant figures (whole numbers kept whole)."""
-    if value == 0:
-        return "0"
-    if math.isinf(value):
-        return "∞" if value > 0 else "−∞"
-    exponent = math.floor(math.log10(abs(value)))
-    decimals = max(0, digits - 1 - exponent)
-    return f"{value:.{decimals}f}".replace("-", "−")
 
 
 def _q(value: float, unit: str = "", digits: int = 4) -> str:
@@ -626,6 +620,21 @@ th, td { overflow-wrap: normal; word-break: normal; hyphens: manual; }
 .reach { margin: 0.5mm 0 0; font-weight: 600; }
 .url { font-family: "DejaVu Sans Mono", monospace; font-size: 85%; overflow-wrap: anywhere; }
 .footer svg { width: 24mm; height: 24mm; flex: none; }
+.running { display: flex; flex-wrap: wrap; gap: 1mm 5mm; font-size: 85%; color: #333;
+           border-bottom: 0.2mm solid #999; padding-bottom: 0.5mm; margin-bottom: 1.5mm; }
+.running .page-number { margin-left: auto; white-space: nowrap; }
+.running span { overflow-wrap: anywhere; }
+.page + .page { break-before: page; page-break-before: always; }
+.section-block { display: flex; gap: 4mm; align-items: flex-start; }
+.inputs-side { flex: 1; min-width: 0; }
+.bars { margin: 0.8mm 0 0; }
+.blank { white-space: nowrap; }
+.sketch { flex: none; width: 62mm; margin: 2mm 0 0; }
+.sketch svg { width: 100%; height: auto; display: block; font-family: inherit; }
+.sketch figcaption { font-size: 80%; color: #444; }
+@media screen {
+  .page + .page { border-top: 0.6mm dashed #999; margin-top: 6mm; padding-top: 4mm; }
+}
 section, table, tr, .footer { page-break-inside: avoid; break-inside: avoid; }
 h2 { page-break-after: avoid; break-after: avoid; }
 @page { size: auto; margin: 10mm; }
@@ -637,6 +646,7 @@ h2 { page-break-after: avoid; break-after: avoid; }
   th, td { padding: 0.2mm 0.8mm; }
   .steps td.clause { width: 17mm; }
   .footer svg { width: 20mm; height: 20mm; }
+  .sketch { width: 66mm; }
 }
 """
 
@@ -648,7 +658,7 @@ BLANK = "________________"
 def _field_text(value: object, limit: int = 2000) -> str:
     """User text for a header field, or the blank line when there is none."""
     text = user_text(value, limit=limit)
-    return text if text.strip() else BLANK
+    return text if text.strip() else f'<span class="blank">{BLANK}</span>'
 
 
 def _header(project: object, mark: object, engineer: object, checked_by: object,
@@ -698,6 +708,20 @@ def _inputs_table(result: FlexuralCheck) -> str:
             f'<td class="label">{label}</td><td data-input="{field}">{text}</td>'
             for label, field, text in cells[i:i + 4]) + "</tr>")
     return f'<table class="inputs">{"".join(rows)}</table>'
+
+
+def bars_text(bars: str | None) -> str:
+    """The bars as placed, e.g. "4 #8 + 2 #8 (2 layers)", from a `bars` value such as "#8:4,2".
+
+    None (the area was typed, not chosen from bars) reads "area typed: bars not
+    specified"; a malformed value raises `InputError` naming `bars`.
+    """
+    if bars is None or not str(bars).strip():
+        return "area typed: bars not specified"
+    designation, counts = read_bars(str(bars))
+    layers = len(counts)
+    return (" + ".join(f"{n} {designation}" for n in counts)
+            + f" ({layers} layer{'s' if layers > 1 else ''})")
 
 
 def section_title(beam: BeamSection) -> str:
@@ -846,6 +870,25 @@ def _footer(link: str, qr_svg: str | None) -> str:
             f'</div>{qr}</section>')
 
 
+def _running_header(project: object, mark: object, date: object, number: int, pages: int) -> str:
+    """The line at the top of every printed page: project, mark, date and "page N of M"."""
+    return (f'<div class="running"><span>Project: {_field_text(project, limit=120)}</span>'
+            f'<span>Beam mark: {_field_text(mark, limit=60)}</span>'
+            f'<span>Date: {_field_text(date, limit=40)}</span>'
+            f'<span class="page-number" data-page="{number}" data-pages="{pages}">'
+            f'page {number} of {pages}</span></div>')
+
+
+def _section_block(result: FlexuralCheck, bars: str | None) -> str:
+    """The inputs and the bars as placed beside the section drawn to scale."""
+    return (f'<section class="section-block"><div class="inputs-side"><h2>Inputs</h2>'
+            f'{_inputs_table(result)}<p class="bars" data-bars>Bars: '
+            f'{html.escape(bars_text(bars))}</p></div>'
+            f'<figure class="sketch">{section_svg(result)}<figcaption>Section to scale: the '
+            f'compression block (grey) to depth a, each steel layer at its depth.'
+            f'</figcaption></figure></section>')
+
+
 def calculation_sheet(
     inputs: Mapping[str, object],
     *,
@@ -854,6 +897,7 @@ def calculation_sheet(
     engineer: object = "",
     checked_by: object = "",
     date: object = "",
+    bars: str | None = None,
     link: str = "",
     qr_svg: str | None = None,
     title: str = "Rhoscope",
@@ -865,26 +909,41 @@ def calculation_sheet(
     `project`, `mark`, `engineer`, `checked_by` and `date` are user text,
     shown escaped; one left empty prints as a blank line (`BLANK`) to fill
     in by hand, so no sheet goes out under a name nobody typed.
-    `link` is the share link (see `share_link.share_url`), printed as text;
-    `qr_svg` its QR code as one inline <svg> element (the engine makes none:
-    it has no dependencies), refused with `InputError` if it holds scripts
-    or links.
+    `bars` is the arrangement the areas came from (BAR:COUNTS, "#8:4,2"), or
+    None when the area was typed. `link` is the share link (see
+    `share_link.share_url`), printed as text with a note when it opens only
+    locally (`link_reach`); `qr_svg` its QR code as one inline <svg> element
+    (the engine makes none: it has no dependencies), refused with
+    `InputError` if it holds scripts or links.
+
+    The sheet prints on `PAGES` pages, each a block that breaks before the
+    next and starts with the running header (project, mark, date, "page N
+    of M"): the calculation of the strength, then the limits, checks,
+    ductility, caution and link.
     """
     result, steps = _calculate(inputs)
     heading = f"Flexural strength of a {section_title(result.beam)}, ACI 318-19"
     page_title = user_text(f"{mark} {project}".strip() or "Calculation sheet", limit=120)
+    pages = (
+        f'<h1>{html.escape(title)} calculation sheet</h1><p>{heading}</p>'
+        f'{_header(project, mark, engineer, checked_by, date)}'
+        f'{_section_block(result, bars)}'
+        f'{_steps_table(steps, "Strength (ε<sub>cu</sub> = 0.003, 22.2.2.1)", "strength")}',
+        f'{_steps_table(steps, "Reinforcement limits", "limits")}'
+        f'{_checks_section(result)}'
+        f'{_ductility_section(result)}'
+        f'{_footer(link, qr_svg)}',
+    )
+    body = "".join(
+        f'<div class="page" data-page="{n}">{_running_header(project, mark, date, n, PAGES)}'
+        f'{content}</div>' for n, content in enumerate(pages, start=1))
     return (
         f'<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8">'
         f'<meta name="viewport" content="width=device-width, initial-scale=1">'
         f'<title>{page_title} · calculation sheet</title><style>{_CSS}</style></head>'
-        f'<body><main>'
-        f'<h1>{html.escape(title)} calculation sheet</h1><p>{heading}</p>'
-        f'{_header(project, mark, engineer, checked_by, date)}'
-        f'<section><h2>Inputs</h2>{_inputs_table(result)}</section>'
-        f'{_steps_table(steps, "Strength (ε<sub>cu</sub> = 0.003, 22.2.2.1)", "strength")}'
-        f'{_steps_table(steps, "Reinforcement limits", "limits")}'
-        f'{_checks_section(result)}'
-        f'{_ductility_section(result)}'
-        f'{_footer(link, qr_svg)}'
-        f'</main></body></html>\n'
+        f'<body><main>{body}</main></body></html>\n'
     )
+
+
+PAGES = 2
+"""Printed pages of every sheet: each fits one Letter or A4 page (tests/browser prints them)."""

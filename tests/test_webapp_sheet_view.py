@@ -150,3 +150,17 @@ def test_checked_by_reaches_the_sheet(view):
     view.checked_by = "M. Lund"
     assert 'data-field="checked_by">M. Lund<' in view.document
     assert "Checked by" in [field.name for field in view.fields.values()]
+
+
+def test_the_pages_chosen_bars_reach_the_sheet():
+    page = BeamCheckPage()
+    view = page.sheet_view
+    view.refresh()
+    assert "Bars: area typed: bars not specified" in view.document
+    page.size_bars.choice.value = 0
+    page.size_bars.use_selected()  # "Use in the check": the page now holds bars
+    designation, counts = page.bars.split(":")
+    counts = counts.split(",")
+    expected = " + ".join(f"{n} {designation}" for n in counts)
+    view.refresh()
+    assert f"Bars: {expected} ({len(counts)} layer" in view.document

@@ -6,8 +6,8 @@ user text. The preview shows that very document in a sandboxed iframe
 (`srcdoc`, itself escaped), so the page's styles and the sheet's never mix
 and the sheet can run nothing. The download is the same bytes.
 
-The view reads the check through two callables (the page's
-`current_inputs` and `share_url`), so it draws no formula of its own. It
+The view reads the check through callables (the page's `current_inputs`,
+`share_url` and its chosen `bars`), so it draws no formula of its own. It
 redraws only while it is shown: a change of the page's inputs while another
 tab is open marks it stale, and opening it redraws it.
 """
@@ -75,10 +75,11 @@ class SheetView(LazyTab, pn.viewable.Viewer):
     date = param.String(default="", doc="date of the check (user text; default today)")
     document = param.String(default="", doc="the last sheet made, one HTML document")
 
-    def __init__(self, inputs: Callable[[], dict], link: Callable[[], str], **params) -> None:
+    def __init__(self, inputs: Callable[[], dict], link: Callable[[], str],
+                 bars: Callable[[], str | None] = lambda: None, **params) -> None:
         params.setdefault("date", datetime.date.today().isoformat())
         super().__init__(**params)
-        self._inputs, self._link = inputs, link
+        self._inputs, self._link, self._bars = inputs, link, bars
         self._qr_for: tuple[str, str | None] | None = None
         # The placeholders show the form of an entry in grey; the sheet prints a
         # blank line for a field left empty, never the example.
@@ -111,8 +112,13 @@ class SheetView(LazyTab, pn.viewable.Viewer):
 
     @classmethod
     def attach(cls, page, title: str = "Calculation sheet", **params) -> "SheetView":
-        """A view of `page`'s check added as the tab `title` (page: current_inputs, share_url, add_view)."""
-        view = cls(page.current_inputs, page.share_url, **params)
+        """A view of `page`'s check added as the tab `title`.
+
+        `page` gives current_inputs, share_url, add_view and `bars` (the chosen
+        arrangement, or None when the area was typed).
+        """
+        view = cls(page.current_inputs, page.share_url, lambda: getattr(page, "bars", None),
+                   **params)
         page.add_view(title, view)
         view.follow(page, getattr(page, "views", None))
         return view
@@ -144,7 +150,7 @@ class SheetView(LazyTab, pn.viewable.Viewer):
         link = self._link()
         return calculation_sheet(self._inputs(), project=self.project, mark=self.mark,
                                  engineer=self.engineer, checked_by=self.checked_by,
-                                 date=self.date, link=link,
+                                 date=self.date, bars=self._bars(), link=link,
                                  qr_svg=self._qr(link))
 
     def refresh(self) -> None:
