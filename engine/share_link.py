@@ -257,13 +257,23 @@ def _value(key: str, text: str) -> object:
                                "(blank for a layer given by its area)")
         return stripped
     if key == "bars":
-        match = _BARS.fullmatch(stripped)
-        if match is None:
-            _refuse(key, text, "BAR:COUNTS, the bottom layer first, such as #8:4,2")
+        read_bars(text)
         return stripped
     if stripped == "" and key in _BLANK_IS_NONE:
         return None
     return _number(key, text)
+
+
+def read_bars(text: str) -> tuple[str, tuple[int, ...]]:
+    """A `bars` value (BAR:COUNTS, the bottom layer first) as its designation and counts.
+
+    `"#8:4,2"` is `("#8", (4, 2))`; anything else raises `InputError` naming `bars`.
+    """
+    match = _BARS.fullmatch(text.strip())
+    if match is None:
+        _refuse("bars", text, "BAR:COUNTS, the bottom layer first, such as #8:4,2")
+    designation, counts = match.groups()
+    return "#" + designation.lstrip("#"), tuple(int(n) for n in counts.split(","))
 
 
 def _number(key: str, text: str) -> float:

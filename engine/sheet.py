@@ -1,13 +1,16 @@
 """The calculation sheet: one check written out for filing, as one HTML page.
 
 `calculation_sheet` returns a complete, self-contained HTML document (inline
-CSS, no scripts, no outside resources) that prints on one Letter or A4 page:
-a header of user text (project, beam mark, engineer, date), the inputs with
-their units, every step as its equation, the equation with the numbers put
-in and the result, each with its ACI 318-19 clause, the checks, the
-warnings, with h the curvature ductility μφ, Mcr, Mn/Mcr and the 6.6.5
-redistribution (the engine's moment–curvature values), the caution and the
-share link with its QR code.
+CSS, no scripts, no outside resources) that prints on two Letter or A4
+pages, each headed by the project, beam mark, date and "page N of 2": a
+header of user text (project, beam mark, engineer, checked by, date; a blank
+line where none was typed), the inputs with their units and the bars as
+placed beside the section drawn to scale (`section_drawing`), every step as
+its equation, the equation with the numbers put in and the result, each
+with its ACI 318-19 clause, the checks, the warnings, with h the curvature
+ductility μφ, Mcr, Mn/Mcr and the 6.6.5 redistribution (the engine's
+moment–curvature values), the caution and the share link with its QR code
+(and, for a link to this machine or a private network, where it opens).
 
 It covers every section `engine.check` takes. A singly reinforced rectangle
 with one steel layer is written out in the textbook closed form (a from
@@ -32,10 +35,12 @@ User text is always escaped, never rendered as HTML.
 from __future__ import annotations
 
 import html
+import ipaddress
 import math
 import re
 from collections.abc import Mapping
 from dataclasses import dataclass
+from urllib.parse import urlsplit
 
 from .checks import CAUTION, FlexuralCheck, check
 from .equilibrium import in_block, layer_force
@@ -44,7 +49,9 @@ from .limits import AS_MIN_COEFFICIENTS, forces_at_strain
 from .materials import BETA1_TABLE, EPS_CU, steel_stress
 from .section import BeamSection, Role
 from .stress_block import block_force, compressed_area
-from .share_link import format_number
+from .number_text import significant
+from .section_drawing import section_svg
+from .share_link import format_number, read_bars
 from .units import UnitSystem, unit_system
 
 SHEET_INPUTS = ("units", "fc", "fy", "b", "d", "As", "dt", "es", "Mu", "spiral", "h", "bf", "hf",
@@ -83,17 +90,6 @@ class SheetStep:
     clause: str
     keyed_result: bool = False
     group: str = "strength"
-
-
-def significant(value: float, digits: int = 4) -> str:
-    """`value` in fixed notation to `digits` significant figures (whole numbers kept whole)."""
-    if value == 0:
-        return "0"
-    if math.isinf(value):
-        return "∞" if value > 0 else "−∞"
-    exponent = math.floor(math.log10(abs(value)))
-    decimals = max(0, digits - 1 - exponent)
-    return f"{value:.{decimals}f}".replace("-", "−")
 
 
 def _q(value: float, unit: str = "", digits: int = 4) -> str:
@@ -591,6 +587,9 @@ def _checked_svg(svg: str) -> str:
     return text
 
 
+# Words break only between words (no hyphenation, no break-all), so "compression" stays one
+# word in a narrow cell; only user text and the link, which may hold no space at all, break
+# anywhere (`overflow-wrap: anywhere` on every cell shrank columns until words split).
 _CSS = """
 * { box-sizing: border-box; }
 body { font: 9.5pt/1.3 "DejaVu Sans", "Segoe UI", Arial, sans-serif; color: #111; margin: 0; }
@@ -602,11 +601,12 @@ table { border-collapse: collapse; width: 100%; }
 th, td { text-align: left; vertical-align: top; padding: 0.4mm 1.2mm;
          border-bottom: 0.1mm solid #ccc; }
 th { font-weight: 600; background: #eee; }
-td { overflow-wrap: anywhere; }
+th, td { overflow-wrap: normal; word-break: normal; hyphens: manual; }
+.header td.value, .url { overflow-wrap: anywhere; }
 .header td { border: none; padding: 0.2mm 1.2mm; }
 .label { color: #444; width: 1%; white-space: nowrap; }
 .steps td.result { font-weight: 600; min-width: 22mm; }
-.steps td.clause { color: #333; overflow-wrap: normal; }
+.steps td.clause { color: #333; }
 .steps td.quantity { width: 14mm; }
 .pass { color: #0a5d1e; font-weight: 700; }
 .fail { color: #a40e0e; font-weight: 700; }
@@ -617,8 +617,24 @@ td { overflow-wrap: anywhere; }
 .footer > div { flex: 1; }
 .caution { border: 0.3mm solid #555; padding: 1mm 1.5mm; margin: 0 0 1mm; }
 .link { margin: 0; }
+.reach { margin: 0.5mm 0 0; font-weight: 600; }
 .url { font-family: "DejaVu Sans Mono", monospace; font-size: 85%; overflow-wrap: anywhere; }
 .footer svg { width: 24mm; height: 24mm; flex: none; }
+.running { display: flex; flex-wrap: wrap; gap: 1mm 5mm; font-size: 85%; color: #333;
+           border-bottom: 0.2mm solid #999; padding-bottom: 0.5mm; margin-bottom: 1.5mm; }
+.running .page-number { margin-left: auto; white-space: nowrap; }
+.running span { overflow-wrap: anywhere; }
+.page + .page { break-before: page; page-break-before: always; }
+.section-block { display: flex; gap: 4mm; align-items: flex-start; }
+.inputs-side { flex: 1; min-width: 0; }
+.bars { margin: 0.8mm 0 0; }
+.blank { white-space: nowrap; }
+.sketch { flex: none; width: 62mm; margin: 2mm 0 0; }
+.sketch svg { width: 100%; height: auto; display: block; font-family: inherit; }
+.sketch figcaption { font-size: 80%; color: #444; }
+@media screen {
+  .page + .page { border-top: 0.6mm dashed #999; margin-top: 6mm; padding-top: 4mm; }
+}
 section, table, tr, .footer { page-break-inside: avoid; break-inside: avoid; }
 h2 { page-break-after: avoid; break-after: avoid; }
 @page { size: auto; margin: 10mm; }
@@ -630,16 +646,31 @@ h2 { page-break-after: avoid; break-after: avoid; }
   th, td { padding: 0.2mm 0.8mm; }
   .steps td.clause { width: 17mm; }
   .footer svg { width: 20mm; height: 20mm; }
+  .sketch { width: 66mm; }
 }
 """
 
 
-def _header(project: object, mark: object, engineer: object, date: object) -> str:
-    cells = [f'<td class="label">{label}</td><td data-field="{field}">{user_text(value)}</td>'
+BLANK = "________________"
+"""What the sheet prints for a header field left empty: a line to fill in by hand."""
+
+
+def _field_text(value: object, limit: int = 2000) -> str:
+    """User text for a header field, or the blank line when there is none."""
+    text = user_text(value, limit=limit)
+    return text if text.strip() else f'<span class="blank">{BLANK}</span>'
+
+
+def _header(project: object, mark: object, engineer: object, checked_by: object,
+            date: object) -> str:
+    cells = [f'<td class="label">{label}:</td><td class="value" data-field="{field}">'
+             f'{_field_text(value)}</td>'
              for label, field, value in (("Project", "project", project), ("Beam mark", "mark", mark),
-                                         ("Engineer", "engineer", engineer), ("Date", "date", date))]
+                                         ("Engineer", "engineer", engineer),
+                                         ("Checked by", "checked_by", checked_by),
+                                         ("Date", "date", date))]
     return (f'<table class="header"><tr>{cells[0]}{cells[1]}</tr>'
-            f'<tr>{cells[2]}{cells[3]}</tr></table>')
+            f'<tr>{cells[2]}{cells[3]}</tr><tr>{cells[4]}<td></td><td></td></tr></table>')
 
 
 def _inputs_table(result: FlexuralCheck) -> str:
@@ -677,6 +708,20 @@ def _inputs_table(result: FlexuralCheck) -> str:
             f'<td class="label">{label}</td><td data-input="{field}">{text}</td>'
             for label, field, text in cells[i:i + 4]) + "</tr>")
     return f'<table class="inputs">{"".join(rows)}</table>'
+
+
+def bars_text(bars: str | None) -> str:
+    """The bars as placed, e.g. "4 #8 + 2 #8 (2 layers)", from a `bars` value such as "#8:4,2".
+
+    None (the area was typed, not chosen from bars) reads "area typed: bars not
+    specified"; a malformed value raises `InputError` naming `bars`.
+    """
+    if bars is None or not str(bars).strip():
+        return "area typed: bars not specified"
+    designation, counts = read_bars(str(bars))
+    layers = len(counts)
+    return (" + ".join(f"{n} {designation}" for n in counts)
+            + f" ({layers} layer{'s' if layers > 1 else ''})")
 
 
 def section_title(beam: BeamSection) -> str:
@@ -775,15 +820,73 @@ def _ductility_section(result: FlexuralCheck) -> str:
             f'ductility, not a code check.</p></section>')
 
 
+_LOOPBACK_NAMES = ("localhost", "localhost.localdomain")
+
+
+def link_reach(link: str) -> str | None:
+    """What a reader must know about where `link` opens, or None when it opens anywhere.
+
+    A page served on this machine (localhost, 127.0.0.0/8, ::1) writes links
+    that open only on the machine that served them; a private LAN address
+    (RFC 1918, fc00::/7, link-local) only inside that network. The sheet
+    prints the note beside the link and the QR code, so nobody files a code
+    that will not scan to the check.
+    """
+    try:
+        host = (urlsplit(link).hostname or "").rstrip(".").lower()
+    except ValueError:  # a malformed address ("http://[::1") is still printed, as text
+        return None
+    if not host:
+        return None
+    if host in _LOOPBACK_NAMES or host.endswith(".localhost"):
+        address = None
+        loopback = True
+    else:
+        try:
+            address = ipaddress.ip_address(host)
+        except ValueError:
+            return None  # a name: assumed to resolve wherever the reader is
+        loopback = address.is_loopback or address.is_unspecified
+    if loopback:
+        return (f"This link and QR code open only on the computer that served the page "
+                f"({host}); on any other device they lead nowhere. Serve or publish the page "
+                f"at a shared address to give others a link that works.")
+    if address is not None and (address.is_private or address.is_link_local):
+        return (f"This link and QR code point to a private network address ({host}): they "
+                f"open only on a device inside that network.")
+    return None
+
+
 def _footer(link: str, qr_svg: str | None) -> str:
-    """The caution, and the share link printed and as a QR code."""
+    """The caution, and the share link printed and as a QR code (with where it opens)."""
     caution = f'<p class="caution" data-caution>{html.escape(CAUTION)}</p>'
     if not link:
         return f'<section class="footer"><div>{caution}</div></section>'
     qr = _checked_svg(qr_svg) if qr_svg else '<p class="no-qr">(no QR code)</p>'
+    reach = link_reach(link)
+    reach_html = f'<p class="reach" data-reach>{html.escape(reach)}</p>' if reach else ""
     return (f'<section class="footer"><div>{caution}<p class="link"><strong>Reopen this check:'
-            f'</strong> <span class="url">{user_text(link, limit=8000)}</span></p></div>'
-            f'{qr}</section>')
+            f'</strong> <span class="url">{user_text(link, limit=8000)}</span></p>{reach_html}'
+            f'</div>{qr}</section>')
+
+
+def _running_header(project: object, mark: object, date: object, number: int, pages: int) -> str:
+    """The line at the top of every printed page: project, mark, date and "page N of M"."""
+    return (f'<div class="running"><span>Project: {_field_text(project, limit=120)}</span>'
+            f'<span>Beam mark: {_field_text(mark, limit=60)}</span>'
+            f'<span>Date: {_field_text(date, limit=40)}</span>'
+            f'<span class="page-number" data-page="{number}" data-pages="{pages}">'
+            f'page {number} of {pages}</span></div>')
+
+
+def _section_block(result: FlexuralCheck, bars: str | None) -> str:
+    """The inputs and the bars as placed beside the section drawn to scale."""
+    return (f'<section class="section-block"><div class="inputs-side"><h2>Inputs</h2>'
+            f'{_inputs_table(result)}<p class="bars" data-bars>Bars: '
+            f'{html.escape(bars_text(bars))}</p></div>'
+            f'<figure class="sketch">{section_svg(result)}<figcaption>Section to scale: the '
+            f'compression block (grey) to depth a, each steel layer at its depth.'
+            f'</figcaption></figure></section>')
 
 
 def calculation_sheet(
@@ -792,7 +895,9 @@ def calculation_sheet(
     project: object = "",
     mark: object = "",
     engineer: object = "",
+    checked_by: object = "",
     date: object = "",
+    bars: str | None = None,
     link: str = "",
     qr_svg: str | None = None,
     title: str = "Rhoscope",
@@ -801,27 +906,44 @@ def calculation_sheet(
 
     `inputs` are `engine.check`'s keywords (any of `SHEET_INPUTS`; None
     means not given); bad inputs raise `InputError` as `check` does.
-    `project`, `mark`, `engineer` and `date` are user text, shown escaped.
-    `link` is the share link (see `share_link.share_url`), printed as text;
-    `qr_svg` its QR code as one inline <svg> element (the engine makes none:
-    it has no dependencies), refused with `InputError` if it holds scripts
-    or links.
+    `project`, `mark`, `engineer`, `checked_by` and `date` are user text,
+    shown escaped; one left empty prints as a blank line (`BLANK`) to fill
+    in by hand, so no sheet goes out under a name nobody typed.
+    `bars` is the arrangement the areas came from (BAR:COUNTS, "#8:4,2"), or
+    None when the area was typed. `link` is the share link (see
+    `share_link.share_url`), printed as text with a note when it opens only
+    locally (`link_reach`); `qr_svg` its QR code as one inline <svg> element
+    (the engine makes none: it has no dependencies), refused with
+    `InputError` if it holds scripts or links.
+
+    The sheet prints on `PAGES` pages, each a block that breaks before the
+    next and starts with the running header (project, mark, date, "page N
+    of M"): the calculation of the strength, then the limits, checks,
+    ductility, caution and link.
     """
     result, steps = _calculate(inputs)
     heading = f"Flexural strength of a {section_title(result.beam)}, ACI 318-19"
     page_title = user_text(f"{mark} {project}".strip() or "Calculation sheet", limit=120)
+    pages = (
+        f'<h1>{html.escape(title)} calculation sheet</h1><p>{heading}</p>'
+        f'{_header(project, mark, engineer, checked_by, date)}'
+        f'{_section_block(result, bars)}'
+        f'{_steps_table(steps, "Strength (ε<sub>cu</sub> = 0.003, 22.2.2.1)", "strength")}',
+        f'{_steps_table(steps, "Reinforcement limits", "limits")}'
+        f'{_checks_section(result)}'
+        f'{_ductility_section(result)}'
+        f'{_footer(link, qr_svg)}',
+    )
+    body = "".join(
+        f'<div class="page" data-page="{n}">{_running_header(project, mark, date, n, PAGES)}'
+        f'{content}</div>' for n, content in enumerate(pages, start=1))
     return (
         f'<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8">'
         f'<meta name="viewport" content="width=device-width, initial-scale=1">'
         f'<title>{page_title} · calculation sheet</title><style>{_CSS}</style></head>'
-        f'<body><main>'
-        f'<h1>{html.escape(title)} calculation sheet</h1><p>{heading}</p>'
-        f'{_header(project, mark, engineer, date)}'
-        f'<section><h2>Inputs</h2>{_inputs_table(result)}</section>'
-        f'{_steps_table(steps, "Strength (ε<sub>cu</sub> = 0.003, 22.2.2.1)", "strength")}'
-        f'{_steps_table(steps, "Reinforcement limits", "limits")}'
-        f'{_checks_section(result)}'
-        f'{_ductility_section(result)}'
-        f'{_footer(link, qr_svg)}'
-        f'</main></body></html>\n'
+        f'<body><main>{body}</main></body></html>\n'
     )
+
+
+PAGES = 2
+"""Printed pages of every sheet: each fits one Letter or A4 page (tests/browser prints them)."""

@@ -282,7 +282,7 @@ def test_bad_inputs_raise_the_engines_error():
         calculation_sheet({k: v for k, v in CASES["B-101-us"].items() if k != "As"})
 
 
-def test_print_css_is_for_one_page():
+def test_print_css_sizes_the_page_and_keeps_rows_whole():
     style = parse(calculation_sheet(CASES["B-101-us"])).style
     assert re.search(r"@page\s*{[^}]*size:\s*auto", style)
     assert "@media print" in style

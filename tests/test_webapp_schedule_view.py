@@ -14,8 +14,12 @@ from pathlib import Path
 
 import pytest
 
+from bokeh.core.properties import field
+
 from engine.schedule import run_schedule, schedule_csv
-from webapp.schedule_view import ScheduleView, table_data
+from webapp.page import BeamCheckPage
+from webapp.schedule_view import (MAX_MESSAGE_LINES, MESSAGE_CHARS_PER_LINE, ROW_LINE_PX,
+                                  ScheduleView, row_height, shown, table_data)
 
 DATA = Path(__file__).parent / "data"
 DEMO = (DATA / "harbourline_schedule.csv").read_text(encoding="utf-8")
@@ -43,10 +47,13 @@ def test_uploaded_text_becomes_the_engines_rows():
     assert schedule.to_dict() == reference.to_dict()
     data = view.source.data
     assert data["mark"] == [row.mark for row in reference.rows]
-    assert data["phiMn"] == [row.phiMn for row in reference.rows]
-    assert data["utilization"] == [row.utilization for row in reference.rows]
+    # Shown rounded (4 and 3 significant figures), within half a unit of the last digit.
+    for shown, full in zip(data["phiMn"], [row.phiMn for row in reference.rows]):
+        assert shown == pytest.approx(full, rel=5e-4)
+    for shown, full in zip(data["utilization"], [row.utilization for row in reference.rows]):
+        assert shown == pytest.approx(full, rel=5e-3)
     # tests/data/README.md: three demo beams fail.
-    assert {m for m, ok in zip(data["mark"], data["ok"]) if ok == "FAIL"} == {
+    assert {m for m, state in zip(data["mark"], data["state"]) if state == "fail"} == {
         "B-104", "B-201", "B-202"}
 
 
@@ -73,7 +80,7 @@ def test_bad_rows_fail_alone_and_are_listed_escaped():
            "B-2,us,4000,60000,12,21.5,3.16,180\n"
     run(view, text)
     data = view.source.data
-    assert data["ok"] == ["error", "pass"]
+    assert data["state"] == ["error", "pass"]
     assert math.isnan(data["phiMn"][0])
     assert "<b>" not in view.notes.object and "&lt;b&gt;B-1&lt;/b&gt;" in view.notes.object
     assert "column As = " in view.notes.object
@@ -175,7 +182,7 @@ def test_a_decimal_comma_fails_its_row_through_upload_and_paste(monkeypatch):
         shifted, meant = schedule.rows
         assert not shifted.computed and "10 cells" in shifted.message
         assert meant.computed and meant.inputs["As"] == 1.58 and meant.inputs["Mu"] == 190.0
-        assert view.source.data["ok"] == ["error", "FAIL"]
+        assert view.source.data["state"] == ["error", "fail"]
         assert "10 cells" in view.notes.object
         assert view.results_csv() == schedule_csv(run_schedule(text))
 
@@ -196,7 +203,7 @@ def test_a_row_whose_check_raises_is_an_error_row_and_the_run_ends(monkeypatch):
     schedule = run(view, DEMO)
     assert not view.running and not view.download.disabled
     assert len(view.source.data["mark"]) == 13
-    assert view.source.data["ok"].count("error") == 2  # B-104 and the other Mu = 300 beam
+    assert view.source.data["state"].count("error") == 2  # B-104 and the other Mu = 300 beam
     assert "internal error in the check" in view.notes.object
     assert schedule.summary.errors == 2
 
@@ -210,3 +217,86 @@ def test_the_page_download_neutralises_formulas_like_the_cli():
     assert downloaded.splitlines()[0].endswith(",'=cmd,phiMn,section_class,eps_t,utilization,ok,message")
     assert downloaded.splitlines()[1].startswith("\"'=HYPERLINK(\"\"http://attacker.example\"\")\",us,")
     assert ",'@SUM(1+1)," in downloaded
+
+
+@pytest.mark.parametrize("value, digits, expected", [
+    (1234.5678, 4, 1235.0),  # 4 significant figures, rounded half up by hand
+    (152.2961, 4, 152.3),
+    (0.0123456, 4, 0.01235),
+    (0.95349, 3, 0.953),
+    (1.2049, 3, 1.20),
+    (None, 4, math.nan),
+    (math.inf, 3, math.nan),
+])
+def test_numbers_are_shown_to_their_significant_figures(value, digits, expected):
+    result = shown(value, digits)
+    assert (math.isnan(result) and math.isnan(expected)) or result == pytest.approx(expected)
+
+
+def test_table_rounds_and_names_units_and_the_csv_keeps_every_digit():
+    view = ScheduleView()
+    schedule = run(view, DEMO)
+    columns = {column.field: column for column in view.table.columns}
+    # tests/data/README.md: the demo holds US and SI rows, so each row shows its unit.
+    assert columns["phiMn"].title == "φMn (see unit)" and columns["moment_unit"].visible
+    assert columns["eps_t"].formatter.format == "0.00000"  # strains to 5 decimals
+    for shown_value, row in zip(view.source.data["phiMn"], schedule.rows):
+        assert shown_value == float(f"{row.phiMn:.4g}")
+    csv_text = view.results_csv()
+    full = schedule.rows[0].phiMn
+    assert repr(full) in csv_text and f"{full:.4g}" != repr(full)  # the file is not rounded
+    run(view, "mark,units,fc,fy,b,d,As,Mu\nB-101,us,4000,60000,12,21.5,3.16,180\n")
+    columns = {column.field: column for column in view.table.columns}
+    assert columns["phiMn"].title == "φMn (kip·ft)" and not columns["moment_unit"].visible
+    run(view, "mark,units,fc,fy,b,d,As,Mu\nG-1,si,30,420,300,500,1500,200\n")
+    assert columns["phiMn"].title == "φMn (kN·m)"
+
+
+def test_failing_rows_are_marked_in_words_and_shaded():
+    view = ScheduleView()
+    run(view, DEMO)
+    data = view.source.data
+    for mark, verdict, shade in zip(data["mark"], data["ok"], data["shade"]):
+        failing = mark in ("B-104", "B-201", "B-202")  # tests/data/README.md
+        assert ("✘" in verdict and "fails" in verdict) == failing, mark
+        assert (shade != "#ffffff") == failing, mark
+    # Every cell takes its row's shade, so a failing row is coloured across.
+    for column in view.table.columns:
+        assert column.formatter.background_color == field("shade")
+
+
+def test_the_message_column_wraps_instead_of_clipping():
+    view = ScheduleView()
+    run(view, DEMO)
+    assert "white-space: normal" in view.table.stylesheets[0]
+    longest = max(len(m) for m in view.source.data["message"])
+    lines = -(-longest // MESSAGE_CHARS_PER_LINE)  # ceiling division
+    assert view.table.row_height >= min(lines, MAX_MESSAGE_LINES) * ROW_LINE_PX
+    assert row_height([]) == row_height([""]) > 0
+
+
+def test_clicking_a_row_opens_that_beam_in_the_check():
+    page = BeamCheckPage()
+    view = page.schedule_view
+    page.views.active = list(page.views._names).index("Beam schedule")
+    schedule = run(view, DEMO)
+    index = [row.mark for row in schedule.rows].index("B-203")
+    view.source.selected.indices = [index]  # what a click on the row sends
+    # tests/data/harbourline_schedule.csv, B-203: us, 5000, 60000, 14, 26.0, 6.24, 520, dt 27.5, h 30.
+    inputs = page.inputs()
+    assert (inputs.units, inputs.fc, inputs.fy, inputs.b, inputs.d, inputs.As, inputs.Mu) == (
+        "us", 5000, 60000, 14, 26.0, 6.24, 520)
+    assert (inputs.dt, inputs.h) == (27.5, 30)
+    assert page.views.active == 0  # the Check tab
+    assert view.source.selected.indices == []  # ready for the next click
+    assert page.result.phiMn == pytest.approx(schedule.rows[index].phiMn, rel=1e-12)
+
+
+def test_a_row_that_could_not_be_read_opens_nothing_and_says_so():
+    page = BeamCheckPage()
+    view = page.schedule_view
+    run(view, "mark,units,fc,fy,b,d,As,Mu\nB-301,us,4000,60000,12,21.5,3,16,180\n")
+    before = page.inputs()
+    view.open_row(0)
+    assert page.inputs() == before
+    assert "nothing to open" in view.status.object and "B-301" in view.status.object

@@ -132,3 +132,35 @@ def test_on_the_page_the_sheet_follows_the_inputs_only_while_shown():
     page.views.active = index
     assert view.document != shown and "3.5 in²" in view.document
 
+
+
+def test_project_and_mark_start_blank_with_the_example_only_as_a_placeholder():
+    view = SheetView(lambda: dict(B204), lambda: LINK)
+    assert view.project == "" and view.mark == "" and view.checked_by == ""
+    assert "Harbourline Depot" in view.fields["project"].placeholder
+    assert "B-204" in view.fields["mark"].placeholder
+    view.refresh()
+    assert "Harbourline" not in view.document and "B-204" not in view.document
+    assert view.document == calculation_sheet(B204, date=view.date, link=LINK,
+                                              qr_svg=qr_svg(LINK))
+
+
+def test_checked_by_reaches_the_sheet(view):
+    view.refresh()
+    view.checked_by = "M. Lund"
+    assert 'data-field="checked_by">M. Lund<' in view.document
+    assert "Checked by" in [field.name for field in view.fields.values()]
+
+
+def test_the_pages_chosen_bars_reach_the_sheet():
+    page = BeamCheckPage()
+    view = page.sheet_view
+    view.refresh()
+    assert "Bars: area typed: bars not specified" in view.document
+    page.size_bars.choice.value = 0
+    page.size_bars.use_selected()  # "Use in the check": the page now holds bars
+    designation, counts = page.bars.split(":")
+    counts = counts.split(",")
+    expected = " + ".join(f"{n} {designation}" for n in counts)
+    view.refresh()
+    assert f"Bars: {expected} ({len(counts)} layer" in view.document

@@ -288,6 +288,12 @@ class BeamCheckPage(pn.viewable.Viewer):
         base = href.split("?", 1)[0].split("#", 1)[0] if href else ""
         return (base or "http://localhost:5006/") + self.share_query()
 
+    def open_check(self, query: str) -> None:
+        """Open a share query (another view's beam) as a link would: inputs, address bar, Check tab."""
+        self.apply_link(query)
+        self._write_link()
+        self.views.active = 0
+
     def add_view(self, title: str, viewable) -> None:
         """Append `viewable` as a tab named `title` after the check's own tab."""
         self.views.append((title, viewable))

@@ -22,10 +22,12 @@ from collections.abc import Callable, Sequence
 
 import panel as pn
 import param
+from bokeh.core.properties import field
 from bokeh.models import ColumnDataSource, DataTable, NumberFormatter, StringFormatter, TableColumn
 
 from engine.schedule import (REQUIRED_COLUMNS, Schedule, ScheduleError, ScheduleRow,
                              check_row, parse_schedule, schedule_csv, summarise)
+from engine.share_link import share_query
 
 from .summary import messages_html
 from .theme import DOWNLOAD_CSS, TEXT_CSS
@@ -35,52 +37,92 @@ MAX_NOTES = 25  # notes listed; the rest are counted
 MAX_UPLOAD_BYTES = 20_000_000
 TABLE_HEIGHT = 420  # px; longer schedules scroll inside the table
 
-COLUMNS = (  # (field, title, formatter kind, width)
-    ("row", "Row", "int", 50), ("mark", "Mark", "text", 80), ("units", "Units", "text", 50),
-    ("phiMn", "φMn", "number", 80), ("moment_unit", "unit", "text", 55),
-    ("section_class", "Class", "text", 150), ("eps_t", "εt", "strain", 80),
-    ("utilization", "Mu/φMn", "ratio", 75), ("ok", "OK", "text", 60),
+COLUMNS = (  # (field, title, formatter kind, width); moment titles get their units in `show`
+    ("row", "Row", "int", 45), ("mark", "Mark", "text", 80), ("units", "Units", "text", 45),
+    ("phiMn", "φMn", "moment", 95), ("moment_unit", "unit", "text", 55),
+    ("section_class", "Class", "text", 140), ("eps_t", "εt", "strain", 75),
+    ("utilization", "Mu/φMn", "ratio", 70), ("ok", "Result", "text", 110),
     ("message", "Message", "text", 520),
 )
 _MOMENT_UNIT = {"us": "kip·ft", "si": "kN·m"}
+VERDICT = {"pass": "✔ passes", "fail": "✘ fails", "error": "⚠ not computed"}
+"""The result column's words: a mark and a word, so a failing row reads as one without colour."""
+SHADE = {"pass": "#ffffff", "fail": "#fde2e2", "error": "#fff4d6"}  # row backgrounds
+MOMENT_DIGITS, RATIO_DIGITS = 4, 3  # significant figures shown; the CSV keeps every digit
+ROW_LINE_PX, MESSAGE_CHARS_PER_LINE, MAX_MESSAGE_LINES = 16, 80, 12
+
+
+def shown(value: float | None, digits: int) -> float:
+    """`value` rounded to `digits` significant figures for display (NaN when not computed)."""
+    if value is None or not math.isfinite(value):
+        return math.nan
+    return float(f"{value:.{digits}g}")
+
+
+def moment_title(units: Sequence[str]) -> str:
+    """φMn's column title with its unit; "see unit" (the unit column) when the rows mix units."""
+    found = sorted({_MOMENT_UNIT[u] for u in units if u in _MOMENT_UNIT})
+    return f"φMn ({found[0]})" if len(found) == 1 else "φMn (see unit)"
+
+
+def row_height(messages: Sequence[str]) -> int:
+    """Grid row height (px) that shows the longest message wrapped, up to `MAX_MESSAGE_LINES`."""
+    longest = max((len(m) for m in messages), default=0)
+    lines = min(MAX_MESSAGE_LINES, max(1, math.ceil(longest / MESSAGE_CHARS_PER_LINE)))
+    return 8 + ROW_LINE_PX * lines
+
+
+def _state(row: ScheduleRow) -> str:
+    if not row.computed:
+        return "error"
+    return "pass" if row.ok else "fail"
 
 
 def table_data(rows: Sequence[ScheduleRow]) -> dict[str, list]:
-    """The DataTable's columns for `rows`: numbers as floats (NaN when not computed)."""
-    def number(value: float | None) -> float:
-        return math.nan if value is None else float(value)
+    """The DataTable's columns for `rows`: numbers rounded for display (NaN when not computed).
 
-    def verdict(row: ScheduleRow) -> str:
-        if not row.computed:
-            return "error"
-        return "pass" if row.ok else "FAIL"
-
+    φMn to 4 significant figures, Mu/φMn to 3, εt to 5 decimals (its formatter);
+    the results file keeps the engine's numbers in full (`schedule_csv`).
+    """
     units = [str(row.cells.get("units", "")).strip().lower() for row in rows]
+    states = [_state(row) for row in rows]
     return {
         "row": [row.row for row in rows],
         "mark": [row.mark for row in rows],
         "units": units,
-        "phiMn": [number(row.phiMn) for row in rows],
+        "phiMn": [shown(row.phiMn, MOMENT_DIGITS) for row in rows],
         "moment_unit": [_MOMENT_UNIT.get(u, "") if row.computed else ""
                         for u, row in zip(units, rows)],
         "section_class": [row.section_class or "" for row in rows],
-        "eps_t": [number(row.eps_t) for row in rows],
-        "utilization": [number(row.utilization) for row in rows],
-        "ok": [verdict(row) for row in rows],
+        "eps_t": [math.nan if row.eps_t is None else float(row.eps_t) for row in rows],
+        "utilization": [shown(row.utilization, RATIO_DIGITS) for row in rows],
+        "ok": [VERDICT[state] for state in states],
+        "state": states,
+        "shade": [SHADE[state] for state in states],
         "message": [row.message for row in rows],
     }
 
 
 def _formatter(kind: str):
+    """A cell formatter whose background is the row's shade (the `shade` column)."""
+    shade = {"background_color": field("shade")}
     if kind == "int":
-        return NumberFormatter(format="0", text_align="right")
-    if kind == "number":
-        return NumberFormatter(format="0,0.0", text_align="right", nan_format="—")
+        return NumberFormatter(format="0", text_align="right", **shade)
+    if kind == "moment":  # values already at 4 significant figures: no trailing zeros added
+        return NumberFormatter(format="0,0.[000000]", text_align="right", nan_format="—",
+                               **shade)
     if kind == "strain":
-        return NumberFormatter(format="0.00000", text_align="right", nan_format="—")
-    if kind == "ratio":
-        return NumberFormatter(format="0.000", text_align="right", nan_format="—")
-    return StringFormatter()
+        return NumberFormatter(format="0.00000", text_align="right", nan_format="—", **shade)
+    if kind == "ratio":  # values at 3 significant figures: 0.953, 1.20, 0.05
+        return NumberFormatter(format="0.00[0]", text_align="right", nan_format="—", **shade)
+    return StringFormatter(**shade)
+
+
+# SlickGrid cells are one clipped line by default; the message column wraps instead.
+TABLE_CSS = """
+.slick-cell { white-space: normal; overflow-wrap: anywhere; line-height: 16px; }
+.slick-row { cursor: pointer; }
+"""
 
 
 class ScheduleView(pn.viewable.Viewer):
@@ -90,9 +132,11 @@ class ScheduleView(pn.viewable.Viewer):
     schedule = param.ClassSelector(class_=Schedule, default=None, allow_None=True,
                                    doc="the last checked schedule")
 
-    def __init__(self, chunk: int = CHUNK, **params) -> None:
+    def __init__(self, chunk: int = CHUNK, open_check: Callable[[str], None] | None = None,
+                 **params) -> None:
         super().__init__(**params)
         self.chunk = chunk
+        self._open_check = open_check  # the page's hook: a share query into the Check tab
         self._run_id = 0
         self.upload = pn.widgets.FileInput(accept=".csv,.tsv,.txt", multiple=False,
                                            css_classes=["rs-schedule-upload"])
@@ -118,7 +162,9 @@ class ScheduleView(pn.viewable.Viewer):
             source=self.source, sortable=True, reorderable=False, index_position=None,
             columns=[TableColumn(field=f, title=t, formatter=_formatter(k), width=w)
                      for f, t, k, w in COLUMNS],
-            height=TABLE_HEIGHT, sizing_mode="stretch_width", name="schedule_table")
+            height=TABLE_HEIGHT, sizing_mode="stretch_width", name="schedule_table",
+            stylesheets=[TABLE_CSS])
+        self.source.selected.on_change("indices", self._on_select)
         # SlickGrid (the DataTable's grid) fails to start inside a hidden tab, and its
         # error stops the whole page from rendering; so the table joins the layout only
         # once there is something to show and the view is on screen.
@@ -138,7 +184,12 @@ class ScheduleView(pn.viewable.Viewer):
                                     stylesheets=[TEXT_CSS], width=130), self.upload),
             self.paste, pn.FlexBox(self.run_button, self.download),
             self.progress, self.status, self.summary,
-            self.table_slot, self.notes,
+            self.table_slot,
+            pn.pane.HTML('<div class="rs-note">Click a row to open that beam in the Check tab. '
+                         'The table rounds (φMn to 4 significant figures, Mu/φMn to 3, εt to 5 '
+                         'decimals); the results file keeps every digit.</div>',
+                         stylesheets=[TEXT_CSS], sizing_mode="stretch_width"),
+            self.notes,
             sizing_mode="stretch_width")
 
     # -- wiring ----------------------------------------------------------
@@ -153,7 +204,7 @@ class ScheduleView(pn.viewable.Viewer):
     @classmethod
     def attach(cls, page, title: str = "Beam schedule", **params) -> "ScheduleView":
         """A schedule view added to `page` as the tab `title` (page: add_view, views)."""
-        view = cls(**params)
+        view = cls(open_check=getattr(page, "open_check", None), **params)
         page.add_view(title, view)
         tabs = getattr(page, "views", None)
         if tabs is not None:
@@ -163,6 +214,30 @@ class ScheduleView(pn.viewable.Viewer):
     def _place_table(self) -> None:
         if not self.table_slot.objects and self.schedule is not None and self._visible():
             self.table_slot.append(pn.pane.Bokeh(self.table, sizing_mode="stretch_width"))
+
+    def _on_select(self, attr, old, new) -> None:
+        if new:
+            self.open_row(new[0])
+
+    def open_row(self, index: int) -> None:
+        """Open row `index` of the table's data in the check: the page takes its inputs.
+
+        The row's `engine.check` keywords travel as a share query
+        (`engine.share_link.share_query`), as if its link had been opened; the
+        page shows the Check tab. A row whose cells could not be read has no
+        inputs to open, and says so.
+        """
+        if self.schedule is None or not 0 <= index < len(self.schedule.rows):
+            return
+        row = self.schedule.rows[index]
+        self.source.selected.indices = []  # a second click on the same row opens it again
+        if row.inputs is None:
+            self.status.object = messages_html(
+                [f"{row.message} (nothing to open in the check)"])
+            return
+        if self._open_check is not None:
+            self.status.object = ""
+            self._open_check(share_query(row.inputs))
 
     # -- input -----------------------------------------------------------
 
@@ -248,8 +323,15 @@ class ScheduleView(pn.viewable.Viewer):
         """Draw a checked schedule: table data in place, summary, notes, download."""
         with pn.io.hold():
             self.schedule = schedule
-            self.source.data = table_data(schedule.rows)
-            self.table.height = min(TABLE_HEIGHT, 32 + 26 * max(len(schedule.rows), 1))
+            data = table_data(schedule.rows)
+            self.source.data = data
+            self.table.row_height = row_height(data["message"])
+            self.table.height = min(TABLE_HEIGHT,
+                                    32 + self.table.row_height * max(len(schedule.rows), 1))
+            units = {u for u, unit in zip(data["units"], data["moment_unit"]) if unit}
+            columns = {column.field: column for column in self.table.columns}
+            columns["phiMn"].title = moment_title(sorted(units))
+            columns["moment_unit"].visible = len(units) > 1  # only when the units are mixed
             self.progress.visible = False
             self.status.object = ""
             self.summary.object = summary_html(schedule)

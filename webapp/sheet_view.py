@@ -6,8 +6,8 @@ user text. The preview shows that very document in a sandboxed iframe
 (`srcdoc`, itself escaped), so the page's styles and the sheet's never mix
 and the sheet can run nothing. The download is the same bytes.
 
-The view reads the check through two callables (the page's
-`current_inputs` and `share_url`), so it draws no formula of its own. It
+The view reads the check through callables (the page's `current_inputs`,
+`share_url` and its chosen `bars`), so it draws no formula of its own. It
 redraws only while it is shown: a change of the page's inputs while another
 tab is open marks it stale, and opening it redraws it.
 """
@@ -68,23 +68,30 @@ def sheet_filename(mark: str) -> str:
 class SheetView(LazyTab, pn.viewable.Viewer):
     """The calculation sheet for the inputs `inputs()` returns, reopened by `link()`."""
 
-    project = param.String(default="Harbourline Depot", doc="project name (user text)")
-    mark = param.String(default="B-204", doc="beam mark (user text)")
+    project = param.String(default="", doc="project name (user text); blank prints a line")
+    mark = param.String(default="", doc="beam mark (user text); blank prints a line")
     engineer = param.String(default="", doc="who made the check (user text)")
+    checked_by = param.String(default="", doc="who checked it (user text)")
     date = param.String(default="", doc="date of the check (user text; default today)")
     document = param.String(default="", doc="the last sheet made, one HTML document")
 
-    def __init__(self, inputs: Callable[[], dict], link: Callable[[], str], **params) -> None:
+    def __init__(self, inputs: Callable[[], dict], link: Callable[[], str],
+                 bars: Callable[[], str | None] = lambda: None, **params) -> None:
         params.setdefault("date", datetime.date.today().isoformat())
         super().__init__(**params)
-        self._inputs, self._link = inputs, link
+        self._inputs, self._link, self._bars = inputs, link, bars
         self._qr_for: tuple[str, str | None] | None = None
+        # The placeholders show the form of an entry in grey; the sheet prints a
+        # blank line for a field left empty, never the example.
         self.fields = {
             name: pn.widgets.TextInput.from_param(
-                self.param[name], name=label, sizing_mode="stretch_width",
-                css_classes=[f"rs-sheet-{name}"])
-            for name, label in (("project", "Project"), ("mark", "Beam mark"),
-                                ("engineer", "Engineer"), ("date", "Date"))}
+                self.param[name], name=label, placeholder=example, sizing_mode="stretch_width",
+                css_classes=[f"rs-sheet-{name.replace('_', '-')}"])
+            for name, label, example in (
+                ("project", "Project", "e.g. Harbourline Depot"),
+                ("mark", "Beam mark", "e.g. B-204"), ("engineer", "Engineer", "your name"),
+                ("checked_by", "Checked by", "the checker's name"),
+                ("date", "Date", "YYYY-MM-DD"))}
         self.download = pn.widgets.FileDownload(
             callback=self._download_file, filename=sheet_filename(self.mark),
             label="Download sheet (HTML)", color="primary", stylesheets=[DOWNLOAD_CSS],
@@ -105,13 +112,18 @@ class SheetView(LazyTab, pn.viewable.Viewer):
 
     @classmethod
     def attach(cls, page, title: str = "Calculation sheet", **params) -> "SheetView":
-        """A view of `page`'s check added as the tab `title` (page: current_inputs, share_url, add_view)."""
-        view = cls(page.current_inputs, page.share_url, **params)
+        """A view of `page`'s check added as the tab `title`.
+
+        `page` gives current_inputs, share_url, add_view and `bars` (the chosen
+        arrangement, or None when the area was typed).
+        """
+        view = cls(page.current_inputs, page.share_url, lambda: getattr(page, "bars", None),
+                   **params)
         page.add_view(title, view)
         view.follow(page, getattr(page, "views", None))
         return view
 
-    @param.depends("project", "mark", "engineer", "date", watch=True)
+    @param.depends("project", "mark", "engineer", "checked_by", "date", watch=True)
     def _header_changed(self) -> None:
         self.download.filename = sheet_filename(self.mark)
         self._stale = True
@@ -137,7 +149,8 @@ class SheetView(LazyTab, pn.viewable.Viewer):
         """The calculation sheet for the current inputs; `engine.InputError` if they are bad."""
         link = self._link()
         return calculation_sheet(self._inputs(), project=self.project, mark=self.mark,
-                                 engineer=self.engineer, date=self.date, link=link,
+                                 engineer=self.engineer, checked_by=self.checked_by,
+                                 date=self.date, bars=self._bars(), link=link,
                                  qr_svg=self._qr(link))
 
     def refresh(self) -> None:

@@ -21,7 +21,7 @@ DEFAULT_LINK_BASE = "http://localhost:8000/"
 
 def register(commands) -> None:
     parser = commands.add_parser(
-        "report", help="write the calculation sheet of one check (HTML, prints on one page)")
+        "report", help="write the calculation sheet of one check (HTML, prints on two numbered pages)")
     add_section_flags(parser)
     parser.add_argument("--mu", metavar="F", help="Mu, factored moment (kip·ft or kN·m)")
     parser.add_argument("--out", required=True, metavar="FILE", help="the sheet to write (HTML)")

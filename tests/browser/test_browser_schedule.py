@@ -58,9 +58,24 @@ def test_upload_shows_the_table_and_summary(page, app_url, screenshots):
     expect(page.locator(".slick-cell", has_text="B-104").first).to_be_visible()
     data = table_rows(page)
     assert data["mark"] == [row.mark for row in reference.rows]
-    assert data["phiMn"] == pytest.approx([row.phiMn for row in reference.rows], rel=1e-15)
-    assert data["ok"].count("FAIL") == 3
+    # Shown to 4 significant figures (the CSV keeps every digit).
+    assert data["phiMn"] == pytest.approx([row.phiMn for row in reference.rows], rel=5e-4)
+    assert data["state"].count("fail") == 3
+    failing = page.locator(".slick-row", has_text="B-104").first
+    expect(failing).to_contain_text("✘ fails")
     page.screenshot(path=screenshots / "schedule-01-demo.png", full_page=True)
+    assert page.page_errors == []
+
+
+def test_clicking_a_row_opens_that_beam_in_the_check(page, app_url):
+    open_schedule_tab(page, app_url)
+    upload(page, DEMO)
+    expect(summary(page)).to_be_visible(timeout=RUN_TIMEOUT_MS)
+    page.locator(".slick-cell", has_text="B-203").first.click()
+    # tests/data/harbourline_schedule.csv, B-203: b = 14, d = 26.0, As = 6.24, Mu = 520.
+    page.wait_for_function("() => location.search.includes('As=6.24')", timeout=RUN_TIMEOUT_MS)
+    assert "Mu=520" in page.evaluate("location.search")
+    expect(page.locator(".bk-tab.bk-active", has_text="Check")).to_be_visible()
     assert page.page_errors == []
 
 
