@@ -50,6 +50,7 @@ from .materials import BETA1_TABLE, EPS_CU, steel_stress
 from .section import BeamSection, Role
 from .stress_block import block_force, compressed_area
 from .number_text import significant
+from .bar_groups import bar_group
 from .section_drawing import section_svg
 from .share_link import format_number, read_bars
 from .units import UnitSystem, unit_system
@@ -710,14 +711,23 @@ def _inputs_table(result: FlexuralCheck) -> str:
     return f'<table class="inputs">{"".join(rows)}</table>'
 
 
-def bars_text(bars: str | None) -> str:
+def bars_text(bars: str | None, units: str = "us") -> str:
     """The bars as placed, e.g. "4 #8 + 2 #8 (2 layers)", from a `bars` value such as "#8:4,2".
 
+    Bars as drawn, one COUNTxBAR a tension layer ("4x9,,2x8", the link's
+    `drawn`), read in `units`, name each layer, a blank one as "area typed".
     None (the area was typed, not chosen from bars) reads "area typed: bars not
     specified"; a malformed value raises `InputError` naming `bars`.
     """
     if bars is None or not str(bars).strip():
         return "area typed: bars not specified"
+    if ":" not in str(bars):
+        system = unit_system(units)
+        entries = str(bars).split(",")
+        parts = ["area typed" if not entry.strip() else bar_group("bars", entry, system).text
+                 for entry in entries]
+        return (" + ".join(parts) + f" ({len(entries)} layer{'s' if len(entries) > 1 else ''},"
+                f" as drawn)")
     designation, counts = read_bars(str(bars))
     layers = len(counts)
     return (" + ".join(f"{n} {designation}" for n in counts)
@@ -883,7 +893,7 @@ def _section_block(result: FlexuralCheck, bars: str | None) -> str:
     """The inputs and the bars as placed beside the section drawn to scale."""
     return (f'<section class="section-block"><div class="inputs-side"><h2>Inputs</h2>'
             f'{_inputs_table(result)}<p class="bars" data-bars>Bars: '
-            f'{html.escape(bars_text(bars))}</p></div>'
+            f'{html.escape(bars_text(bars, result.beam.system.name))}</p></div>'
             f'<figure class="sketch">{section_svg(result)}<figcaption>Section to scale: the '
             f'compression block (grey) to depth a, each steel layer at its depth.'
             f'</figcaption></figure></section>')

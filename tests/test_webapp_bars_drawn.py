@@ -77,3 +77,14 @@ def test_a_link_whose_bars_disagree_with_the_area_says_so(page):
                                    "&drawn=4x9")
     assert inputs.As == 3 and inputs.drawn == ()
     assert messages and "4 #9 is 4 in²" in messages[0] and "the area is used" in messages[0]
+
+
+def test_the_sheet_states_the_bars_as_drawn(page):
+    from engine.sheet import bars_text  # ASTM A615 #9, #8; A615M No. 29 (the soft-metric #9)
+    page.set_inputs(layers=((1.0, 19.0),))
+    page.layer_rows[1][2].value = "2 #8"
+    page.bars_input.value = "4 #9"
+    assert bars_text("4x9,2x8", "us") == "4 #9 + 2 #8 (2 layers, as drawn)"
+    assert bars_text("4x29,", "si") == "4 No. 29 + area typed (2 layers, as drawn)"
+    from webapp.sheet_view import _bars_of
+    assert _bars_of(page) == "4x9,2x8"

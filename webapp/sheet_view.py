@@ -117,7 +117,7 @@ class SheetView(LazyTab, pn.viewable.Viewer):
         `page` gives current_inputs, share_url, add_view and `bars` (the chosen
         arrangement, or None when the area was typed).
         """
-        view = cls(page.current_inputs, page.share_url, lambda: getattr(page, "bars", None),
+        view = cls(page.current_inputs, page.share_url, lambda: _bars_of(page),
                    **params)
         page.add_view(title, view)
         view.follow(page, getattr(page, "views", None))
@@ -185,3 +185,12 @@ def preview_html(document: str) -> str:
             f'srcdoc="{html.escape(document, quote=True)}" '
             f'style="width:100%;height:{PREVIEW_HEIGHT}px;border:1px solid #bbb;'
             f'background:#fff"></iframe>')
+
+
+def _bars_of(page) -> str | None:
+    """The bars the page knows: the arrangement chosen in Size the bars, else the bars as drawn."""
+    chosen = getattr(page, "bars", None)
+    if chosen:
+        return chosen
+    drawn = getattr(page, "drawn", ())
+    return ",".join(group or "" for group in drawn) if drawn and any(drawn) else None
