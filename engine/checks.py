@@ -13,7 +13,9 @@ from dataclasses import dataclass
 from functools import cached_property
 
 from .cracking import cracking_moment
+from .equilibrium import later_equilibrium
 from .flexure import FlexuralState, analyse
+from .materials import beta1
 from .limits import (EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits,
                      unreachable_reason)
 from .moment_curvature import curvature_ductility
@@ -172,6 +174,7 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
                 f"the neutral axis (c = {state.c:.4g} {beam.system.length}) and is in tension "
                 f"(fs = {ls.stress:.5g} {beam.system.stress}); it is counted so (22.2.1.2, 20.2.2.1).",)
     warnings += misplaced_tension_steel(beam, state.layers, state.c)
+    warnings += _second_equilibrium_warning(beam, state.c)
     warnings += _unreachable_limit_warnings(beam, limits, state.eps_ty)
     checks = (_minimum_steel_check(beam, limits, As_req, Mu),
               _strain_limit_check(state))
@@ -185,6 +188,20 @@ def check_beam(beam: BeamSection, Mu: float | None = None) -> FlexuralCheck:
 # a lumped layer stands for bars a layer or two apart (25.2.2), not for steel
 # a quarter of the depth lower.
 _DT_BELOW_STEEL = 0.25
+
+
+def _second_equilibrium_warning(beam: BeamSection, c: float) -> tuple[str, ...]:
+    """Two neutral-axis depths satisfy equilibrium: say which one the check reports."""
+    b1 = beta1(beam.fc, beam.system)
+    later = later_equilibrium(beam, b1, c)
+    if later is None:
+        return ()
+    L = beam.system.length
+    return (f"Two neutral-axis depths satisfy equilibrium (22.2.1.1): c = {c:.4g} {L} and "
+            f"c = {later:.4g} {L}, because a bar at the edge of the stress block a = β1c "
+            f"displaces its concrete as the block passes it. The check reports the smaller, "
+            f"c = {c:.4g} {L}, the first equilibrium reached as the section is loaded; check "
+            f"the compression steel's depth d'.",)
 
 
 def _dt_warnings(beam: BeamSection) -> tuple[str, ...]:

@@ -84,23 +84,51 @@ def net_force(section: BeamSection, c: float, beta1: float, *, edge_inside: bool
     return net_force_and_slope(section, c, beta1, edge_inside=edge_inside)[0]
 
 
-def solve_neutral_axis(section: BeamSection, beta1: float) -> Equilibrium:
-    """The smallest c with N(c) = 0, to `RELATIVE_FORCE_TOLERANCE`."""
+def solve_neutral_axis(section: BeamSection, beta1: float, *,
+                       above: float | None = None) -> Equilibrium:
+    """The smallest c with N(c) = 0, to `RELATIVE_FORCE_TOLERANCE`.
+
+    With `above`, a step where N(above+) < 0, the smallest root past it
+    (`later_equilibrium` looks for one).
+    """
     steel_capacity = section.fy * sum(layer.area for layer in section.layers)
     tolerance = RELATIVE_FORCE_TOLERANCE * steel_capacity
-    upper = section.dt
+    if above is None:
+        lower, f_lower = 0.0, -steel_capacity  # as c → 0 every layer yields in tension
+    else:
+        lower, f_lower = above, net_force(section, above, beta1, edge_inside=True)
+    upper = max(section.dt, 2 * lower)
     f_upper = net_force(section, upper, beta1)
     while f_upper < 0:  # as c grows all steel turns to compression, so this ends
         upper *= 2
         f_upper = net_force(section, upper, beta1)
     steps = sorted({layer.depth / beta1 for layer in section.layers})
-    lower, f_lower = 0.0, -steel_capacity  # as c → 0 every layer yields in tension
-    for edge in [step for step in steps if step < upper] + [upper]:
+    for edge in [step for step in steps if lower < step < upper] + [upper]:
         f_edge = f_upper if edge == upper else net_force(section, edge, beta1)
         if f_edge >= 0:
             return _safeguarded_newton(section, beta1, lower, f_lower, edge, f_edge, tolerance)
         lower, f_lower = edge, net_force(section, edge, beta1, edge_inside=True)
     raise AssertionError("unreachable: N(upper) >= 0 by construction")
+
+
+def later_equilibrium(section: BeamSection, beta1: float, c: float) -> float | None:
+    """A second c with N(c) = 0 past the root `c`, or None.
+
+    N rises between its steps, so past the first root it can return to zero
+    only after a step drops it below zero: a layer (usually A's) entering the
+    block as c grows, its displaced concrete deducted. Then N rises again to
+    a second root.
+    """
+    steps = sorted({layer.depth / beta1 for layer in section.layers})
+    for step in steps:
+        if step > c and net_force(section, step, beta1, edge_inside=True) < 0:
+            # With h given the block stops growing at a = h, so N can stay below zero
+            # for every deeper c (bars of more area than the concrete they displace from).
+            far = 1e6 * steps[-1]
+            if net_force(section, far, beta1) < 0:
+                return None
+            return solve_neutral_axis(section, beta1, above=step).c
+    return None
 
 
 def _safeguarded_newton(section: BeamSection, beta1: float, low: float, f_low: float,
