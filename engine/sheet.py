@@ -510,7 +510,7 @@ def _general_limit_steps(result: FlexuralCheck, r: dict) -> list[SheetStep]:
 def _LIMITS(r: dict):
     return (("rho_tc", "As_tc", "ρ<sub>tc</sub>", f"{_EPS_TY} + 0.003", r["eps_ty"] + 0.003,
              "Table 21.2.2"),
-            ("rho_max", "As_max", "ρ at ε<sub>t</sub> = 0.004", "0.004", 0.004, "9.3.3.1"),
+            ("rho_max", "As_max", "ρ", "0.004", 0.004, "9.3.3.1"),
             ("rho_b", "As_b", "ρ<sub>b</sub>", _EPS_TY, r["eps_ty"], "21.2.2 (balanced)"))
 
 
