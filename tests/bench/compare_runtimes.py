@@ -23,9 +23,12 @@ from pyodide_node import ENGINE_DIR, REPO, missing_tools, run_in_pyodide  # noqa
 
 TIMING = HERE / "engine_timing.py"
 MARKER = "RHOSCOPE-TIMING "
-TARGETS_S = {"check": 50e-6, "capacity_curve_400": 5e-3}
-LABELS = {"check": "engine.check", "capacity_curve_400": "engine.capacity_curve(points=400)"}
+TARGETS_S = {"check": 50e-6, "capacity_curve_400": 5e-3, "curvature_60_sweep_40": 30e-3}
+LABELS = {"check": "engine.check", "capacity_curve_400": "engine.capacity_curve(points=400)",
+          "curvature_60_sweep_40": "moment_curvature(60) + sweep(40)"}
 PYODIDE_FACTOR = 4.0
+# Issue 12.8 asks the curvature work to stay within 3x of CPython in Pyodide.
+PYODIDE_FACTORS = {"curvature_60_sweep_40": 3.0}
 
 
 def parse(stdout: str) -> dict:
@@ -83,14 +86,16 @@ def main(argv=None) -> int:
         if pyo:
             p = pyo["timings"][key]["best"]
             ratio = p / c
-            verdicts.append("Pyodide ok" if ratio <= PYODIDE_FACTOR else "Pyodide SLOW")
-            if ratio > PYODIDE_FACTOR:
-                missed.append(f"{label} in Pyodide: {ratio:.2f}x CPython > {PYODIDE_FACTOR}x")
+            factor = PYODIDE_FACTORS.get(key, PYODIDE_FACTOR)
+            verdicts.append("Pyodide ok" if ratio <= factor else "Pyodide SLOW")
+            if ratio > factor:
+                missed.append(f"{label} in Pyodide: {ratio:.2f}x CPython > {factor}x")
             row = f"{label:36s} {fmt(c):>12s} {fmt(TARGETS_S[key]):>10s} {fmt(p):>12s} {ratio:>6.2f}x"
         else:
             row = f"{label:36s} {fmt(c):>12s} {fmt(TARGETS_S[key]):>10s} {'-':>12s} {'-':>7s}"
         print(f"{row} {', '.join(verdicts):>24s}")
-    print(f"(targets: CPython below the target column; Pyodide within {PYODIDE_FACTOR:g}x of CPython)")
+    print(f"(targets: CPython below the target column; Pyodide within {PYODIDE_FACTOR:g}x of CPython,"
+          f" the curvature work within {PYODIDE_FACTORS['curvature_60_sweep_40']:g}x)")
     for line in missed:
         print(f"target missed: {line}")
     return 1 if (missed and args.strict) else 0

@@ -1,4 +1,4 @@
-"""Time engine.check and a 400-point engine.capacity_curve inside the running interpreter.
+"""Time engine.check, a 400-point capacity curve and the curvature view's work in this interpreter.
 
 Standard library and engine only: tests/bench/compare_runtimes.py runs this same
 file in CPython and inside Pyodide under Node, so both are timed the same way
@@ -36,6 +36,11 @@ def main() -> None:
                                   number=max(1, int(2000 * scale)), repeat=7),
         "capacity_curve_400": per_call_seconds(lambda: engine.capacity_curve(**SECTION, points=400),
                                                number=max(1, int(40 * scale)), repeat=7),
+        # Issue 12.8: a 60-point moment–curvature curve plus a 40-value μφ sweep.
+        "curvature_60_sweep_40": per_call_seconds(
+            lambda: (engine.moment_curvature(**SECTION, h=24, points=60),
+                     engine.ductility_sweep(**SECTION, h=24, points=40)),
+            number=max(1, int(5 * scale)), repeat=5),
     }
     runtime = "pyodide" if sys.platform == "emscripten" else "cpython"
     print("RHOSCOPE-TIMING " + json.dumps({"runtime": runtime, "python": sys.version.split()[0],
