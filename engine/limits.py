@@ -13,8 +13,8 @@ import math
 from dataclasses import dataclass
 
 from .equilibrium import in_block, layer_force
-from .materials import EPS_CU, beta1, yield_strain
-from .section import BeamSection, Role
+from .section.materials import EPS_CU, beta1, yield_strain
+from .section.beam import BeamSection, Role
 from .stress_block import block_force
 from .strength_reduction import TENSION_CONTROL_MARGIN
 

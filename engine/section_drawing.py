@@ -19,7 +19,7 @@ import html
 
 from .checks import FlexuralCheck
 from .number_text import significant
-from .section import Role
+from .section.beam import Role
 from .share_link import format_number
 
 _WIDTH = 330.0  # drawing units; the sheet's CSS sets the printed size

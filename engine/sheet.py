@@ -44,16 +44,16 @@ from urllib.parse import urlsplit
 
 from .checks import CAUTION, FlexuralCheck, check
 from .equilibrium import in_block, layer_force
-from .errors import InputError
+from .section.errors import InputError
 from .limits import AS_MIN_COEFFICIENTS, forces_at_strain
-from .materials import BETA1_TABLE, EPS_CU, steel_stress
-from .section import BeamSection, Role
+from .section.materials import BETA1_TABLE, EPS_CU, steel_stress
+from .section.beam import BeamSection, Role
 from .stress_block import block_force, compressed_area
 from .number_text import significant
-from .bar_groups import bar_group
+from .section.bar_groups import bar_group
 from .section_drawing import section_svg
 from .share_link import format_number, read_bars
-from .units import UnitSystem, unit_system
+from .section.units import UnitSystem, unit_system
 
 SHEET_INPUTS = ("units", "fc", "fy", "b", "d", "As", "dt", "es", "Mu", "spiral", "h", "bf", "hf",
                 "asc", "dc", "layers")

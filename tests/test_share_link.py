@@ -146,7 +146,7 @@ def test_keys_are_the_check_keywords():
     # The link's check keys are engine.check's own keyword names (issues 2 and 5), `layers`
     # travelling as the CLI's repeatable `layer`.
     import inspect
-    from engine.section import beam_section
+    from engine.section.beam import beam_section
     keywords = set(inspect.signature(beam_section).parameters) | {"Mu"}
     assert set(CHECK_KEYS) == keywords
     assert set(KEYS) == (keywords - {"layers"}) | {"layer"} | set(PAGE_KEYS)

@@ -21,7 +21,7 @@ from __future__ import annotations
 from dataclasses import dataclass, field, fields, replace
 
 import engine
-from engine.bar_groups import BarGroup, bar_group
+from engine.section.bar_groups import BarGroup, bar_group
 from engine.share_link import KEYS, MAX_FIELDS, format_number, read_share_query, share_query
 
 NUMBER_FIELDS = ("fc", "fy", "b", "d", "As", "Mu")

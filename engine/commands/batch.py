@@ -12,7 +12,7 @@ import json
 import sys
 
 from ..checks import CAUTION
-from ..errors import QUOTE_LIMIT, quoted
+from ..section.errors import QUOTE_LIMIT, quoted
 from ..schedule import ScheduleError, check_schedule, parse_schedule, schedule_csv
 from .output_file import write_text
 

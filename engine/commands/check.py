@@ -8,7 +8,7 @@ import math
 
 from ..checks import CAUTION, FlexuralCheck, check
 from ..curve import DEFAULT_POINTS, capacity_curve
-from ..errors import InputError
+from ..section.errors import InputError
 from ..special_frame import SpecialFrameCheck, special_frame_check
 from .arguments import add_section_flags, parse_float, section_inputs
 

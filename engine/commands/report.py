@@ -9,7 +9,7 @@ import re
 import sys
 
 from ..checks import CAUTION, check
-from ..errors import InputError
+from ..section.errors import InputError
 from ..share_link import share_url
 from ..sheet import calculation_sheet
 from .arguments import add_section_flags, parse_float, section_inputs
