@@ -12,8 +12,8 @@ import math
 from dataclasses import dataclass
 from functools import cached_property
 
-from .cracking import cracking_moment
-from .equilibrium import later_equilibrium
+from .mechanics.cracking import cracking_moment
+from .mechanics.equilibrium import later_equilibrium
 from .flexure import FlexuralState, analyse
 from .section.materials import beta1
 from .limits import (EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits,

@@ -44,7 +44,7 @@ from .section.errors import InputError
 from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
 from .section.materials import yield_strain
 from .required_steel import design_moment, required_steel
-from .root_finding import least_root_from_above
+from .mechanics.root_finding import least_root_from_above
 from .section.beam import BeamSection, SteelLayer
 from .strength_reduction import TENSION_CONTROL_MARGIN
 from .section.units import UnitSystem, unit_system

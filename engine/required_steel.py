@@ -7,7 +7,7 @@ import math
 from .flexure import capacity_point
 from .limits import EPS_T_BEAM_MINIMUM, areas_reaching_strain
 from .section.materials import BLOCK_STRESS_FACTOR, EPS_CU, beta1, yield_strain
-from .root_finding import least_root_from_above
+from .mechanics.root_finding import least_root_from_above
 from .section.beam import BeamSection
 from .strength_reduction import (PHI_TENSION_CONTROLLED, TENSION_CONTROL_MARGIN, SectionClass,
                                  section_class)

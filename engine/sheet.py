@@ -43,12 +43,12 @@ from dataclasses import dataclass
 from urllib.parse import urlsplit
 
 from .checks import CAUTION, FlexuralCheck, check
-from .equilibrium import in_block, layer_force
+from .mechanics.equilibrium import in_block, layer_force
 from .section.errors import InputError
 from .limits import AS_MIN_COEFFICIENTS, forces_at_strain
 from .section.materials import BETA1_TABLE, EPS_CU, steel_stress
 from .section.beam import BeamSection, Role
-from .stress_block import block_force, compressed_area
+from .mechanics.stress_block import block_force, compressed_area
 from .number_text import significant
 from .section.bar_groups import bar_group
 from .section_drawing import section_svg
