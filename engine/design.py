@@ -35,18 +35,18 @@ from .arrangement import (Arrangement, arrange, bars_that_fit, clear_spacing, di
                           fits_within, nearest_distribution, side_cover)
 from .section.bars import DEFAULT_STIRRUP, STIRRUP_NUMBERS, Bar, bar as standard_bar, bars as standard_bars_in
 from .section.bars import standard_bars
-from .checks import CAUTION, CodeCheck, check_beam
-from .detailing import (DEFAULT_AGGREGATE, Exposure, Support, maximum_bar_spacing, minimum_clear_spacing,
+from .provisions.checks import CAUTION, CodeCheck, check_beam
+from .provisions.detailing import (DEFAULT_AGGREGATE, Exposure, Support, maximum_bar_spacing, minimum_clear_spacing,
                         minimum_cover, minimum_depth, minimum_layer_gap, minimum_steel_area,
                         minimum_steel_satisfied,
                         service_stress, skin_depth_limit, skin_reinforcement_required)
 from .section.errors import InputError
-from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
+from .provisions.limits import EPS_T_BEAM_MINIMUM, steel_for_strain
 from .section.materials import yield_strain
-from .required_steel import design_moment, required_steel
+from .provisions.required_steel import design_moment, required_steel
 from .mechanics.root_finding import least_root_from_above
 from .section.beam import BeamSection, SteelLayer
-from .strength_reduction import TENSION_CONTROL_MARGIN
+from .provisions.strength_reduction import TENSION_CONTROL_MARGIN
 from .section.units import UnitSystem, unit_system
 from .section.validation import hard_maximum, in_range
 

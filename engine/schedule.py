@@ -34,7 +34,7 @@ import re
 from collections.abc import Callable, Iterable, Iterator, Mapping
 from dataclasses import dataclass
 
-from .checks import check
+from .provisions.checks import check
 from .section.errors import QUOTE_LIMIT, InputError, quoted
 from .share_link import format_number
 

@@ -17,7 +17,7 @@ from __future__ import annotations
 
 import html
 
-from .checks import FlexuralCheck
+from .provisions.checks import FlexuralCheck
 from .number_text import significant
 from .section.beam import Role
 from .share_link import format_number

@@ -38,7 +38,7 @@ from numbers import Real
 from urllib.parse import parse_qsl, urlencode, urlsplit, urlunsplit
 
 from .design import Order
-from .detailing import Support
+from .provisions.detailing import Support
 from .section.errors import InputError
 from .section.units import unit_system
 from .section.validation import decimal_text

@@ -42,10 +42,10 @@ from collections.abc import Mapping
 from dataclasses import dataclass
 from urllib.parse import urlsplit
 
-from .checks import CAUTION, FlexuralCheck, check
+from .provisions.checks import CAUTION, FlexuralCheck, check
 from .mechanics.equilibrium import in_block, layer_force
 from .section.errors import InputError
-from .limits import AS_MIN_COEFFICIENTS, forces_at_strain
+from .provisions.limits import AS_MIN_COEFFICIENTS, forces_at_strain
 from .section.materials import BETA1_TABLE, EPS_CU, steel_stress
 from .section.beam import BeamSection, Role
 from .mechanics.stress_block import block_force, compressed_area

@@ -17,7 +17,7 @@ from pathlib import Path
 
 import pytest
 
-from engine.checks import CAUTION
+from engine.provisions.checks import CAUTION
 from engine.cli import main
 from engine.share_link import format_number
 

@@ -11,7 +11,7 @@ import argparse
 import json
 import sys
 
-from ..checks import CAUTION
+from ..provisions.checks import CAUTION
 from ..section.errors import QUOTE_LIMIT, quoted
 from ..schedule import ScheduleError, check_schedule, parse_schedule, schedule_csv
 from .output_file import write_text

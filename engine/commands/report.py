@@ -8,7 +8,7 @@ import json
 import re
 import sys
 
-from ..checks import CAUTION, check
+from ..provisions.checks import CAUTION, check
 from ..section.errors import InputError
 from ..share_link import share_url
 from ..sheet import calculation_sheet

@@ -12,9 +12,9 @@ import math
 from dataclasses import dataclass
 
 from .limits import ReinforcementLimits, reinforcement_limits
-from .section.units import quoted_moment
+from ..section.units import quoted_moment
 from .flexure import capacity_point
-from .section.beam import BeamSection, beam_section
+from ..section.beam import BeamSection, beam_section
 from .strength_reduction import PHI_TENSION_CONTROLLED, SectionClass
 
 DEFAULT_POINTS = 400
