@@ -3,11 +3,11 @@
 Standard library only, no I/O. The same code runs in CPython and in Pyodide.
 """
 
-from .arrangement import Arrangement, arrange
+from .design.arrangement import Arrangement, arrange
 from .section.bars import Bar, bar, standard_bars
 from .provisions.checks import CAUTION, CodeCheck, FlexuralCheck, check, check_beam
 from .provisions.curve import CapacityCurve, capacity_curve, curve_for_beam
-from .design import (BarOption, DesignResult, DesignSection, FailedRule, Order, design_section,
+from .design.sizing import (BarOption, DesignResult, DesignSection, FailedRule, Order, design_section,
                      detailing_checks)
 from .provisions.detailing import Exposure, Support
 from .section.errors import InputError, RhoscopeError

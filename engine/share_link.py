@@ -37,7 +37,7 @@ from dataclasses import dataclass, field
 from numbers import Real
 from urllib.parse import parse_qsl, urlencode, urlsplit, urlunsplit
 
-from .design import Order
+from .design.sizing import Order
 from .provisions.detailing import Support
 from .section.errors import InputError
 from .section.units import unit_system

@@ -6,7 +6,7 @@ import argparse
 import json
 
 from ..provisions.checks import CAUTION
-from ..design import DesignResult, Order, design_section
+from ..design.sizing import DesignResult, Order, design_section
 from ..provisions.detailing import Exposure, Support
 from .arguments import add_required_flags, parse_float
 
