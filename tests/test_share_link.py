@@ -16,7 +16,7 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 import engine
-from engine.share_link import (CHECK_KEYS, KEYS, PAGE_KEYS, format_number, parse_share_query,
+from engine.documents.share_link import (CHECK_KEYS, KEYS, PAGE_KEYS, format_number, parse_share_query,
                                read_share_query, share_query, share_url)
 
 # Harbourline Depot roof beam B-101 (invented).

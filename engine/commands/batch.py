@@ -13,7 +13,7 @@ import sys
 
 from ..provisions.checks import CAUTION
 from ..section.errors import QUOTE_LIMIT, quoted
-from ..schedule import ScheduleError, check_schedule, parse_schedule, schedule_csv
+from ..documents.schedule import ScheduleError, check_schedule, parse_schedule, schedule_csv
 from .output_file import write_text
 
 EXIT_ROWS_NOT_COMPUTED = 1
