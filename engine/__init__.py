@@ -4,21 +4,21 @@ Standard library only, no I/O. The same code runs in CPython and in Pyodide.
 """
 
 from .design.arrangement import Arrangement, arrange
-from .section.bars import Bar, bar, standard_bars
+from .design.sizing import (BarOption, DesignResult, DesignSection, FailedRule, Order, design_section,
+                            detailing_checks)
 from .provisions.checks import CAUTION, CodeCheck, FlexuralCheck, check, check_beam
 from .provisions.curve import CapacityCurve, capacity_curve, curve_for_beam
-from .design.sizing import (BarOption, DesignResult, DesignSection, FailedRule, Order, design_section,
-                     detailing_checks)
 from .provisions.detailing import Exposure, Support
-from .section.errors import InputError, RhoscopeError
 from .provisions.flange_width import effective_flange_width
 from .provisions.moment_curvature import (CurvaturePoint, DuctilitySweep, MomentCurvature, curvature_for_beam,
-                               ductility_sweep, ductility_sweep_for_beam, moment_curvature)
+                                          ductility_sweep, ductility_sweep_for_beam, moment_curvature)
 from .provisions.redistribution import Redistribution
-from .section.beam import BeamSection, Flange, Role, SteelLayer, beam_section, rectangular_beam
 from .provisions.special_frame import (NotChecked, SpecialFrameCheck, special_frame_check,
-                            special_frame_for_beam)
+                                       special_frame_for_beam)
 from .provisions.strength_reduction import SectionClass
+from .section.bars import Bar, bar, standard_bars
+from .section.beam import BeamSection, Flange, Role, SteelLayer, beam_section, rectangular_beam
+from .section.errors import InputError, RhoscopeError
 from .section.units import SI, US, UnitSystem, convert, unit_system
 
 __version__ = "0.1.0"

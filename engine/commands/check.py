@@ -8,8 +8,8 @@ import math
 
 from ..provisions.checks import CAUTION, FlexuralCheck, check
 from ..provisions.curve import DEFAULT_POINTS, capacity_curve
-from ..section.errors import InputError
 from ..provisions.special_frame import SpecialFrameCheck, special_frame_check
+from ..section.errors import InputError
 from .arguments import add_section_flags, parse_float, section_inputs
 
 

@@ -6,7 +6,8 @@ import argparse
 import json
 
 from ..provisions.checks import CAUTION
-from ..provisions.moment_curvature import DEFAULT_POINTS, MAX_POINTS, MIN_POINTS, MomentCurvature, moment_curvature
+from ..provisions.moment_curvature import (DEFAULT_POINTS, MAX_POINTS, MIN_POINTS, MomentCurvature,
+                                           moment_curvature)
 from .arguments import add_section_flags, section_inputs
 
 

@@ -5,8 +5,8 @@ from __future__ import annotations
 import argparse
 import json
 
-from ..provisions.checks import CAUTION
 from ..design.sizing import DesignResult, Order, design_section
+from ..provisions.checks import CAUTION
 from ..provisions.detailing import Exposure, Support
 from .arguments import add_required_flags, parse_float
 

@@ -8,10 +8,10 @@ import json
 import re
 import sys
 
-from ..provisions.checks import CAUTION, check
-from ..section.errors import InputError
 from ..documents.share_link import share_url
 from ..documents.sheet import calculation_sheet
+from ..provisions.checks import CAUTION, check
+from ..section.errors import InputError
 from .arguments import add_section_flags, parse_float, section_inputs
 from .output_file import write_text
 

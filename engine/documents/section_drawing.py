@@ -18,8 +18,8 @@ from __future__ import annotations
 import html
 
 from ..provisions.checks import FlexuralCheck
-from .number_text import significant
 from ..section.beam import Role
+from .number_text import significant
 from .share_link import format_number
 
 _WIDTH = 330.0  # drawing units; the sheet's CSS sets the printed size

@@ -14,19 +14,18 @@ from functools import cached_property
 
 from ..mechanics.cracking import cracking_moment
 from ..mechanics.equilibrium import later_equilibrium
-from .flexure import FlexuralState, analyse
+from ..section.beam import BeamSection, Role, beam_section
 from ..section.materials import beta1
-from .limits import (EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits,
-                     unreachable_reason)
+from ..section.units import quoted_moment
+from ..section.validation import hard_maximum, in_range
+from .flexure import FlexuralState, analyse
+from .limits import EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits, unreachable_reason
 from .moment_curvature import curvature_ductility
 from .redistribution import Redistribution, permitted_redistribution
 from .required_steel import required_steel_for
 from .scope import scope_warnings
 from .section_warnings import misplaced_tension_steel, section_warnings
-from ..section.beam import BeamSection, Role, beam_section
 from .strength_reduction import STRAIN_ROUNDING, TENSION_CONTROL_MARGIN
-from ..section.units import quoted_moment
-from ..section.validation import hard_maximum, in_range
 
 CAUTION = (
     "Rhoscope is a design aid, not a substitute for engineering judgement. "

@@ -14,10 +14,10 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from ..mechanics.equilibrium import in_block, layer_force, solve_neutral_axis
-from ..section.materials import EPS_CU, beta1, steel_stress, yield_strain
-from ..section.beam import BeamSection, Role, SteelLayer
-from .strength_reduction import SectionClass, phi_flexure, section_class
 from ..mechanics.stress_block import block_force
+from ..section.beam import BeamSection, Role, SteelLayer
+from ..section.materials import EPS_CU, beta1, steel_stress, yield_strain
+from .strength_reduction import SectionClass, phi_flexure, section_class
 
 
 @dataclass(frozen=True)

@@ -13,9 +13,9 @@ import math
 from dataclasses import dataclass
 
 from ..mechanics.equilibrium import in_block, layer_force
-from ..section.materials import EPS_CU, beta1, yield_strain
-from ..section.beam import BeamSection, Role
 from ..mechanics.stress_block import block_force
+from ..section.beam import BeamSection, Role
+from ..section.materials import EPS_CU, beta1, yield_strain
 from .strength_reduction import TENSION_CONTROL_MARGIN
 
 EPS_T_BEAM_MINIMUM = 0.004

@@ -31,17 +31,17 @@ from collections.abc import Callable
 from dataclasses import dataclass
 
 from ..mechanics.cracking import cracking_moment
-from .curve import last_ratio
-from ..section.errors import InputError
-from .flexure import analyse
-from .limits import reinforcement_limits
-from ..section.materials import EPS_CU, yield_strain
-from .redistribution import Redistribution, permitted_redistribution
 from ..mechanics.root_finding import least_root_from_above
-from ..section.beam import BeamSection, beam_section
 from ..mechanics.section_response import ResponseModel, forces, response_model
+from ..section.beam import BeamSection, beam_section
+from ..section.errors import InputError
+from ..section.materials import EPS_CU, yield_strain
 from ..section.units import quoted_moment
 from ..section.validation import hard_maximum, range_text
+from .curve import last_ratio
+from .flexure import analyse
+from .limits import reinforcement_limits
+from .redistribution import Redistribution, permitted_redistribution
 
 DEFAULT_POINTS = 60
 MIN_POINTS = 40
