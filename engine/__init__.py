@@ -3,23 +3,23 @@
 Standard library only, no I/O. The same code runs in CPython and in Pyodide.
 """
 
-from .arrangement import Arrangement, arrange
-from .bars import Bar, bar, standard_bars
-from .checks import CAUTION, CodeCheck, FlexuralCheck, check, check_beam
-from .curve import CapacityCurve, capacity_curve, curve_for_beam
-from .design import (BarOption, DesignResult, DesignSection, FailedRule, Order, design_section,
-                     detailing_checks)
-from .detailing import Exposure, Support
-from .errors import InputError, RhoscopeError
-from .flange_width import effective_flange_width
-from .moment_curvature import (CurvaturePoint, DuctilitySweep, MomentCurvature, curvature_for_beam,
-                               ductility_sweep, ductility_sweep_for_beam, moment_curvature)
-from .redistribution import Redistribution
-from .section import BeamSection, Flange, Role, SteelLayer, beam_section, rectangular_beam
-from .special_frame import (NotChecked, SpecialFrameCheck, special_frame_check,
-                            special_frame_for_beam)
-from .strength_reduction import SectionClass
-from .units import SI, US, UnitSystem, convert, unit_system
+from .design.arrangement import Arrangement, arrange
+from .design.sizing import (BarOption, DesignResult, DesignSection, FailedRule, Order, design_section,
+                            detailing_checks)
+from .provisions.checks import CAUTION, CodeCheck, FlexuralCheck, check, check_beam
+from .provisions.curve import CapacityCurve, capacity_curve, curve_for_beam
+from .provisions.detailing import Exposure, Support
+from .provisions.flange_width import effective_flange_width
+from .provisions.moment_curvature import (CurvaturePoint, DuctilitySweep, MomentCurvature, curvature_for_beam,
+                                          ductility_sweep, ductility_sweep_for_beam, moment_curvature)
+from .provisions.redistribution import Redistribution
+from .provisions.special_frame import (NotChecked, SpecialFrameCheck, special_frame_check,
+                                       special_frame_for_beam)
+from .provisions.strength_reduction import SectionClass
+from .section.bars import Bar, bar, standard_bars
+from .section.beam import BeamSection, Flange, Role, SteelLayer, beam_section, rectangular_beam
+from .section.errors import InputError, RhoscopeError
+from .section.units import SI, US, UnitSystem, convert, unit_system
 
 __version__ = "0.1.0"
 

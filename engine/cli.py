@@ -15,7 +15,7 @@ import sys
 from collections.abc import Sequence
 from importlib import import_module
 
-from .errors import QUOTE_LIMIT, InputError, quoted
+from .section.errors import QUOTE_LIMIT, InputError, quoted
 
 EXIT_BAD_INPUT = 2
 

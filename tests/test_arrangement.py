@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 import engine
-from engine.arrangement import bars_that_fit, clear_spacing, distributions, nearest_distribution
+from engine.design.arrangement import bars_that_fit, clear_spacing, distributions, nearest_distribution
 
 US_BAR = {b.designation: b for b in engine.standard_bars(engine.US)}
 SI_BAR = {b.designation: b for b in engine.standard_bars(engine.SI)}

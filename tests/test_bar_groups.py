@@ -1,4 +1,4 @@
-"""Bars as drawn ("4-#9"): read as a count and an ASTM size, their area exact (engine.bar_groups).
+"""Bars as drawn ("4-#9"): read as a count and an ASTM size, their area exact (engine.section.bar_groups).
 
 Areas: ASTM A615/A615M Table 1 nominal areas (#9: 1.00 in², #8: 0.79 in²,
 No. 25: 510 mm², No. 29: 645 mm²).
@@ -9,7 +9,7 @@ from __future__ import annotations
 import pytest
 
 import engine
-from engine.bar_groups import bar_group
+from engine.section.bar_groups import bar_group
 
 
 @pytest.mark.parametrize("text", ["4-#9", "4 #9", "4#9", "4x9", "4 x #9", "4×9", "4 No. 9"])

@@ -292,7 +292,7 @@ def test_project_wheel_holds_engine_and_webapp_only(site):
     assert "engine/__init__.pyc" in names and "webapp/app.pyc" in names and "webapp/first_look.pyc" in names
     assert not [n for n in names if n.endswith(".py")]
     with zipfile.ZipFile(wheel) as archive:
-        magic = archive.read("engine/checks.pyc")[:4]
+        magic = archive.read("engine/provisions/checks.pyc")[:4]
     # CPython 3.13's bytecode magic number, 3571 (Lib/importlib/_bootstrap_external.py), as Pyodide 0.29 runs 3.13.
     assert int.from_bytes(magic[:2], "little") == 3571 and magic[2:] == b"\r\n"
     assert not [n for n in names if "/tests/" in n or n.startswith("tests/") or "conftest" in n

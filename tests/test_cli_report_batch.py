@@ -17,9 +17,9 @@ from pathlib import Path
 
 import pytest
 
-from engine.checks import CAUTION
+from engine.provisions.checks import CAUTION
 from engine.cli import main
-from engine.share_link import format_number
+from engine.documents.share_link import format_number
 
 DATA = Path(__file__).parent / "data"
 DEMO = DATA / "harbourline_schedule.csv"
@@ -234,9 +234,9 @@ def test_batch_to_stdout_keeps_the_csv_clean_and_cautions_on_stderr(capsys):
 
 def _raising_for_mu(mu):
     """engine.check that raises for one Mu: a stand-in for a crash inside the engine."""
-    import engine.schedule
+    import engine.documents.schedule
 
-    real_check = engine.schedule.check
+    real_check = engine.documents.schedule.check
 
     def faulty(**inputs):
         if inputs.get("Mu") == mu:
@@ -248,9 +248,9 @@ def _raising_for_mu(mu):
 
 def test_batch_survives_a_row_whose_check_raises(tmp_path, capsys, monkeypatch):
     # Issue 10 item 1: one row must never abort the schedule; the results file is written.
-    import engine.schedule
+    import engine.documents.schedule
 
-    monkeypatch.setattr(engine.schedule, "check", _raising_for_mu(520.0))  # B-203 alone
+    monkeypatch.setattr(engine.documents.schedule, "check", _raising_for_mu(520.0))  # B-203 alone
     out = tmp_path / "results.csv"
     assert main(["batch", str(DEMO), "--out", str(out)]) == 1  # a row could not be computed
     printed = capsys.readouterr().out

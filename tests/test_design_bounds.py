@@ -13,7 +13,7 @@ import math
 import pytest
 
 import engine
-import engine.design as design_module
+import engine.design.sizing as design_module
 
 US_BAR_SIZES = 11  # #3–#11, #14, #18 (ASTM A615)
 

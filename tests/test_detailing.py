@@ -8,7 +8,7 @@ from __future__ import annotations
 import pytest
 
 import engine
-from engine.detailing import (Exposure, Support, depth_modification, maximum_bar_spacing,
+from engine.provisions.detailing import (Exposure, Support, depth_modification, maximum_bar_spacing,
                               minimum_clear_spacing, minimum_cover, minimum_depth,
                               minimum_layer_gap, minimum_steel_area, minimum_steel_satisfied,
                               service_stress, skin_reinforcement_required)

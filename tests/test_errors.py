@@ -8,7 +8,7 @@ from contextlib import redirect_stderr, redirect_stdout
 import pytest
 
 from engine.cli import main
-from engine.errors import QUOTE_LIMIT, InputError, quoted
+from engine.section.errors import QUOTE_LIMIT, InputError, quoted
 
 
 def test_a_short_value_is_quoted_whole():

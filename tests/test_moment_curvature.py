@@ -23,7 +23,7 @@ import sympy
 from scipy.optimize import brentq
 
 import engine
-from engine.redistribution import permitted_redistribution
+from engine.provisions.redistribution import permitted_redistribution
 from reference_cases import EPS_CU, ES_SI, ES_US, beta1_reference
 
 KIP_FT = 12_000.0  # lb·in per kip·ft

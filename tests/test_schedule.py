@@ -15,8 +15,8 @@ import json
 import pytest
 
 import engine
-import engine.schedule
-from engine.schedule import (REQUIRED_COLUMNS, RESULT_COLUMNS, ScheduleError, check_schedule,
+import engine.documents.schedule
+from engine.documents.schedule import (REQUIRED_COLUMNS, RESULT_COLUMNS, ScheduleError, check_schedule,
                              parse_schedule, run_schedule, schedule_csv, spreadsheet_safe)
 
 HEADER = "mark,units,fc,fy,b,d,As,Mu"
@@ -355,14 +355,14 @@ def test_line_separators_inside_a_cell_do_not_move_row_numbers():
 def test_an_unexpected_error_in_one_rows_check_fails_that_row_only(monkeypatch):
     # Issue 10 item 1: one row whose check raises must not cost the schedule. The fault is
     # simulated (the engine's own crash is fixed in the engine); the other rows are computed.
-    real_check = engine.schedule.check
+    real_check = engine.documents.schedule.check
 
     def faulty(**inputs):
         if inputs["Mu"] == 20:
             raise AssertionError("unreachable: N(upper) ≥ 0 by construction")
         return real_check(**inputs)
 
-    monkeypatch.setattr(engine.schedule, "check", faulty)
+    monkeypatch.setattr(engine.documents.schedule, "check", faulty)
     schedule = run_schedule(_schedule(GOOD, "B-2,us,4000,40000,36,36,0.27,20", GOOD))
     first, broken, last = schedule.rows
     assert first.computed and last.computed
@@ -413,7 +413,7 @@ def test_numbers_stay_numbers_in_the_results_file():
     schedule = run_schedule(_schedule("B-101,us,4000,60000,12,21.5,3.16,180,-2,+3.5",
                                       header=HEADER + ",level,offset"))
     row = schedule.rows[0]
-    negative = engine.schedule.Schedule(
+    negative = engine.documents.schedule.Schedule(
         columns=schedule.columns, unknown_columns=schedule.unknown_columns,
         rows=(dataclasses.replace(row, eps_t=-0.0012, phiMn=-1.5),), summary=schedule.summary)
     out = list(csv.DictReader(io.StringIO(schedule_csv(negative))))[0]

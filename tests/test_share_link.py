@@ -16,7 +16,7 @@ from hypothesis import given
 from hypothesis import strategies as st
 
 import engine
-from engine.share_link import (CHECK_KEYS, KEYS, PAGE_KEYS, format_number, parse_share_query,
+from engine.documents.share_link import (CHECK_KEYS, KEYS, PAGE_KEYS, format_number, parse_share_query,
                                read_share_query, share_query, share_url)
 
 # Harbourline Depot roof beam B-101 (invented).
@@ -146,7 +146,7 @@ def test_keys_are_the_check_keywords():
     # The link's check keys are engine.check's own keyword names (issues 2 and 5), `layers`
     # travelling as the CLI's repeatable `layer`.
     import inspect
-    from engine.section import beam_section
+    from engine.section.beam import beam_section
     keywords = set(inspect.signature(beam_section).parameters) | {"Mu"}
     assert set(CHECK_KEYS) == keywords
     assert set(KEYS) == (keywords - {"layers"}) | {"layer"} | set(PAGE_KEYS)

@@ -15,7 +15,7 @@ from html.parser import HTMLParser
 import pytest
 
 import engine
-from engine.sheet import calculation_sheet, sheet_steps, significant
+from engine.documents.sheet import calculation_sheet, sheet_steps, significant
 from self_contained import outside_resources
 
 # Harbourline Depot beams (invented), chosen to reach each branch of the sheet.

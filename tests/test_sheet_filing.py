@@ -14,7 +14,7 @@ import xml.etree.ElementTree as ET
 import pytest
 
 import engine
-from engine.sheet import BLANK, calculation_sheet, link_reach
+from engine.documents.sheet import BLANK, calculation_sheet, link_reach
 from self_contained import outside_resources
 from test_sheet import CASES, GENERAL, parse
 
@@ -158,14 +158,14 @@ def test_every_page_starts_with_the_header_and_its_number():
                                  date="2025-03-14")
     pages = re.findall(r'<div class="page" data-page="(\d+)">(.*?)(?=<div class="page"|</main>)',
                        document, re.S)
-    assert [int(n) for n, _ in pages] == list(range(1, engine.sheet.PAGES + 1))
+    assert [int(n) for n, _ in pages] == list(range(1, engine.documents.sheet.PAGES + 1))
     for number, content in pages:
         running = parse(content)
         text = "".join(running.text)
         assert content.startswith('<div class="running">')
         assert "Project: Harbourline Depot" in text and "Beam mark: B-204" in text
         assert "Date: 2025-03-14" in text
-        assert f"page {number} of {engine.sheet.PAGES}" in text
+        assert f"page {number} of {engine.documents.sheet.PAGES}" in text
     assert re.search(r"\.page \+ \.page\s*{[^}]*break-before:\s*page", parse(document).style)
     assert outside_resources(document) == []
     # The caution is on the sheet (on its last page, beside the link).

@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 import engine
-from engine.share_link import parse_share_query, read_share_query, share_query
+from engine.documents.share_link import parse_share_query, read_share_query, share_query
 from webapp.state import Inputs, convert_inputs, default_inputs, parse_query
 
 B301 = "?units=us&fc=4000&fy=60000&b=14&d=21.5&As=2.37&Mu=&h=24"

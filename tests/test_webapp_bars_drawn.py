@@ -80,7 +80,7 @@ def test_a_link_whose_bars_disagree_with_the_area_says_so(page):
 
 
 def test_the_sheet_states_the_bars_as_drawn(page):
-    from engine.sheet import bars_text  # ASTM A615 #9, #8; A615M No. 29 (the soft-metric #9)
+    from engine.documents.sheet import bars_text  # ASTM A615 #9, #8; A615M No. 29 (the soft-metric #9)
     page.set_inputs(layers=((1.0, 19.0),))
     page.layer_rows[1][2].value = "2 #8"
     page.bars_input.value = "4 #9"

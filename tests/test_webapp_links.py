@@ -3,7 +3,7 @@
 References: hand computations beside each number (ACI 318-19 22.2, Table
 21.2.2); `engine.check` of the very keywords a link was written from (the
 page must check what the link says, so the engine is the reference for the
-round trip); the link format of engine.share_link.
+round trip); the link format of engine.documents.share_link.
 """
 
 from __future__ import annotations
@@ -15,7 +15,7 @@ from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 
 import engine
-from engine.share_link import share_query
+from engine.documents.share_link import share_query
 from webapp.location_guard import RawQueryLocation
 from webapp.page import BeamCheckPage
 

@@ -1,6 +1,6 @@
 """The schedule view without a browser: text in, the engine's rows, summary and CSV out.
 
-References: `engine.schedule.run_schedule` / `schedule_csv` for the same text
+References: `engine.documents.schedule.run_schedule` / `schedule_csv` for the same text
 (the view must show exactly what the engine computed), and the demo file's
 documented outcome (tests/data/README.md: B-104, B-201 and B-202 fail).
 """
@@ -16,7 +16,7 @@ import pytest
 
 from bokeh.core.properties import field
 
-from engine.schedule import run_schedule, schedule_csv
+from engine.documents.schedule import run_schedule, schedule_csv
 from webapp.page import BeamCheckPage
 from webapp.schedule_view import (MAX_MESSAGE_LINES, MESSAGE_CHARS_PER_LINE, ROW_LINE_PX,
                                   ScheduleView, row_height, shown, table_data)
@@ -189,16 +189,16 @@ def test_a_decimal_comma_fails_its_row_through_upload_and_paste(monkeypatch):
 
 def test_a_row_whose_check_raises_is_an_error_row_and_the_run_ends(monkeypatch):
     # Issue 10 item 1: the schedule tab stuck when one row's check raised.
-    import engine.schedule
+    import engine.documents.schedule
 
-    real_check = engine.schedule.check
+    real_check = engine.documents.schedule.check
 
     def faulty(**inputs):
         if inputs["Mu"] == 300:
             raise AssertionError("unreachable")
         return real_check(**inputs)
 
-    monkeypatch.setattr(engine.schedule, "check", faulty)
+    monkeypatch.setattr(engine.documents.schedule, "check", faulty)
     view = ScheduleView()
     schedule = run(view, DEMO)
     assert not view.running and not view.download.disabled

@@ -13,7 +13,7 @@ from html.parser import HTMLParser
 import pytest
 
 import engine
-from engine.sheet import calculation_sheet
+from engine.documents.sheet import calculation_sheet
 from webapp.page import BeamCheckPage
 from webapp.sheet_view import SheetView, preview_html, qr_svg, sheet_filename
 
@@ -60,7 +60,7 @@ def test_download_is_the_same_document(view):
     data = view._download_file().getvalue().decode("utf-8")
     assert data == view.document and data.startswith("<!DOCTYPE html>")
     phiMn = engine.check(**B204).phiMn
-    assert f'data-value="{engine.share_link.format_number(phiMn)}"' in data
+    assert f'data-value="{engine.documents.share_link.format_number(phiMn)}"' in data
 
 
 def test_preview_is_one_sandboxed_iframe_holding_the_document(view):

@@ -168,7 +168,7 @@ def test_format_number_is_shortest_and_url_safe():
 def _valid_inputs(units: str):
     hard = {"us": dict(fc=30_000.0, fy=200_000.0, b=1_200.0, d=1_200.0),
             "si": dict(fc=200.0, fy=1_400.0, b=30_000.0, d=30_000.0)}[units]
-    # From 0.01: the engine refuses sizes below 1e-12 of their maximum (engine/validation.py),
+    # From 0.01: the engine refuses sizes below 1e-12 of their maximum (engine/section/validation.py),
     # and As = share·b·d must stay above that floor too.
     positive = {name: st.floats(min_value=1e-2, max_value=top, allow_nan=False)
                 for name, top in hard.items()}

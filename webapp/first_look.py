@@ -16,7 +16,7 @@ from __future__ import annotations
 import json
 
 import engine
-from engine.share_link import format_number
+from engine.documents.share_link import format_number
 
 from .state import parse_query
 from .summary import CLASS_NAMES, LIMITS, fmt, refused_reason, signed, verdict

@@ -6,7 +6,7 @@ that `str.isdigit()` accepts. `int()` refuses some of those ('²' is a digit to
 `isdigit`) and any number of more than 4,300 digits (Python's limit on
 converting text to int), so a link such as `?x=%C2%B2` raised inside Panel
 before the page could read it, and the page stayed blank. The page reads its
-query itself (`state.parse_query`, through `engine.share_link`) and syncs no
+query itself (`state.parse_query`, through `engine.documents.share_link`) and syncs no
 parameter through Panel's location, so its `Location` keeps the raw text and
 never refuses a query: every query reaches the page's own reader and its
 messages.

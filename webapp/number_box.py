@@ -13,7 +13,7 @@ from __future__ import annotations
 
 import panel as pn
 
-from engine.validation import decimal_text
+from engine.section.validation import decimal_text
 
 SHOWN_DECIMALS = 4  # a value the page sets is shown to 4 decimals, trailing zeros dropped
 

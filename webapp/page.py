@@ -20,7 +20,7 @@ import panel as pn
 import param
 
 import engine
-from engine.bar_groups import bar_group
+from engine.section.bar_groups import bar_group
 
 from . import summary
 from .design_view import SizeBarsView, design_kwargs, matching_option

@@ -1,6 +1,6 @@
 """The beam schedule: upload a CSV or paste from a spreadsheet, check every row, download.
 
-Reading, checking and writing are the engine's (`engine.schedule`); this
+Reading, checking and writing are the engine's (`engine.documents.schedule`); this
 view only feeds it text and draws what comes back: a sortable table (a
 Bokeh DataTable, whose JS ships with the page), the summary, and the
 notes on unknown columns and rows that could not be computed. Text the user
@@ -25,9 +25,9 @@ import param
 from bokeh.core.properties import field
 from bokeh.models import ColumnDataSource, DataTable, NumberFormatter, StringFormatter, TableColumn
 
-from engine.schedule import (REQUIRED_COLUMNS, Schedule, ScheduleError, ScheduleRow,
+from engine.documents.schedule import (REQUIRED_COLUMNS, Schedule, ScheduleError, ScheduleRow,
                              check_row, parse_schedule, schedule_csv, summarise)
-from engine.share_link import share_query
+from engine.documents.share_link import share_query
 
 from .summary import messages_html
 from .theme import DOWNLOAD_CSS, TEXT_CSS
@@ -223,7 +223,7 @@ class ScheduleView(pn.viewable.Viewer):
         """Open row `index` of the table's data in the check: the page takes its inputs.
 
         The row's `engine.check` keywords travel as a share query
-        (`engine.share_link.share_query`), as if its link had been opened; the
+        (`engine.documents.share_link.share_query`), as if its link had been opened; the
         page shows the Check tab. A row whose cells could not be read has no
         inputs to open, and says so.
         """

@@ -1,6 +1,6 @@
 """The calculation sheet of the current check: header fields, a preview and a download.
 
-The sheet is the engine's (`engine.sheet.calculation_sheet`), one
+The sheet is the engine's (`engine.documents.sheet.calculation_sheet`), one
 self-contained HTML document in which the engine escapes every piece of
 user text. The preview shows that very document in a sandboxed iframe
 (`srcdoc`, itself escaped), so the page's styles and the sheet's never mix
@@ -24,7 +24,7 @@ import panel as pn
 import param
 
 import engine
-from engine.sheet import calculation_sheet
+from engine.documents.sheet import calculation_sheet
 
 from . import lazy_packages
 from .lazy_tab import LazyTab

@@ -1,6 +1,6 @@
 """The app's input state, and its round trip through a share link's query string.
 
-The link format is `engine.share_link`'s (the one encoder and reader of links):
+The link format is `engine.documents.share_link`'s (the one encoder and reader of links):
 `units` ("us" or "si"), `fc`, `fy`, `b`, `d`, `As` and `Mu` (blank for none),
 and for other sections `dt`, `h`, `shape` (rect, T, L) with `bf` and `hf`
 (or the slab's `sw` and `ln`, Table 6.3.2.1), `asc` and `dc`, and one
@@ -21,8 +21,8 @@ from __future__ import annotations
 from dataclasses import dataclass, field, fields, replace
 
 import engine
-from engine.bar_groups import BarGroup, bar_group
-from engine.share_link import KEYS, MAX_FIELDS, format_number, read_share_query, share_query
+from engine.section.bar_groups import BarGroup, bar_group
+from engine.documents.share_link import KEYS, MAX_FIELDS, format_number, read_share_query, share_query
 
 NUMBER_FIELDS = ("fc", "fy", "b", "d", "As", "Mu")
 QUERY_KEYS = KEYS

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import argparse
 
-from ..errors import InputError
+from ..section.errors import InputError
 
 
 def parse_float(field: str, text: str | None) -> float | None:

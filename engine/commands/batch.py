@@ -11,9 +11,9 @@ import argparse
 import json
 import sys
 
-from ..checks import CAUTION
-from ..errors import QUOTE_LIMIT, quoted
-from ..schedule import ScheduleError, check_schedule, parse_schedule, schedule_csv
+from ..documents.schedule import ScheduleError, check_schedule, parse_schedule, schedule_csv
+from ..provisions.checks import CAUTION
+from ..section.errors import QUOTE_LIMIT, quoted
 from .output_file import write_text
 
 EXIT_ROWS_NOT_COMPUTED = 1

@@ -6,10 +6,10 @@ import argparse
 import json
 import math
 
-from ..checks import CAUTION, FlexuralCheck, check
-from ..curve import DEFAULT_POINTS, capacity_curve
-from ..errors import InputError
-from ..special_frame import SpecialFrameCheck, special_frame_check
+from ..provisions.checks import CAUTION, FlexuralCheck, check
+from ..provisions.curve import DEFAULT_POINTS, capacity_curve
+from ..provisions.special_frame import SpecialFrameCheck, special_frame_check
+from ..section.errors import InputError
 from .arguments import add_section_flags, parse_float, section_inputs
 
 

@@ -5,8 +5,9 @@ from __future__ import annotations
 import argparse
 import json
 
-from ..checks import CAUTION
-from ..moment_curvature import DEFAULT_POINTS, MAX_POINTS, MIN_POINTS, MomentCurvature, moment_curvature
+from ..provisions.checks import CAUTION
+from ..provisions.moment_curvature import (DEFAULT_POINTS, MAX_POINTS, MIN_POINTS, MomentCurvature,
+                                           moment_curvature)
 from .arguments import add_section_flags, section_inputs
 
 

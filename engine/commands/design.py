@@ -5,9 +5,9 @@ from __future__ import annotations
 import argparse
 import json
 
-from ..checks import CAUTION
-from ..design import DesignResult, Order, design_section
-from ..detailing import Exposure, Support
+from ..design.sizing import DesignResult, Order, design_section
+from ..provisions.checks import CAUTION
+from ..provisions.detailing import Exposure, Support
 from .arguments import add_required_flags, parse_float
 
 

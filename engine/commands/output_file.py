@@ -5,7 +5,7 @@ from __future__ import annotations
 import os
 import secrets
 
-from ..errors import InputError
+from ..section.errors import InputError
 
 
 def write_text(path: str, text: str, field: str = "out") -> None:

@@ -8,10 +8,10 @@ import json
 import re
 import sys
 
-from ..checks import CAUTION, check
-from ..errors import InputError
-from ..share_link import share_url
-from ..sheet import calculation_sheet
+from ..documents.share_link import share_url
+from ..documents.sheet import calculation_sheet
+from ..provisions.checks import CAUTION, check
+from ..section.errors import InputError
 from .arguments import add_section_flags, parse_float, section_inputs
 from .output_file import write_text
 

@@ -14,7 +14,7 @@ from pathlib import Path
 import pytest
 
 import engine
-from engine.schedule import parse_schedule, run_schedule, schedule_csv
+from engine.documents.schedule import parse_schedule, run_schedule, schedule_csv
 
 ROWS = 10_000
 DEMO = Path(__file__).resolve().parent.parent / "data" / "harbourline_schedule.csv"

@@ -7,7 +7,7 @@ unit switch that overtook queued changes. Each test drives the page without
 waiting between actions, polls until nothing on the page changes any more, and
 then compares every input widget, the address bar and φMn with each other: the
 address bar's query is read by the page's own reader (`webapp.state.parse_query`,
-through `engine.share_link`) and checked by `engine.check`.
+through `engine.documents.share_link`) and checked by `engine.check`.
 """
 
 from __future__ import annotations

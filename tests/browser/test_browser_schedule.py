@@ -1,6 +1,6 @@
 """The beam schedule in Chromium: upload, table, summary, sort, download, a 1,000-row run.
 
-References: `engine.schedule.run_schedule` and `schedule_csv` for the same
+References: `engine.documents.schedule.run_schedule` and `schedule_csv` for the same
 file (the page must show and return what the engine computed), and the demo
 file's documented outcome (tests/data/README.md: 13 beams, B-104, B-201
 and B-202 fail).
@@ -14,7 +14,7 @@ from pathlib import Path
 import pytest
 from playwright.sync_api import expect
 
-from engine.schedule import run_schedule, schedule_csv
+from engine.documents.schedule import run_schedule, schedule_csv
 
 from app_driver import bokeh_models, open_app
 

@@ -15,8 +15,8 @@ from playwright.sync_api import expect
 
 import engine
 from engine.commands.report import qr_svg
-from engine.share_link import format_number
-from engine.sheet import calculation_sheet
+from engine.documents.share_link import format_number
+from engine.documents.sheet import calculation_sheet
 
 from app_driver import BOOT_TIMEOUT_MS, UPDATE_TIMEOUT_MS, open_app
 
@@ -110,7 +110,7 @@ def test_download_is_self_contained_and_shows_the_engines_phimn(page, app_url, t
 def test_a_flanged_check_from_a_link_gets_its_sheet(page, app_url, screenshots):
     inputs = dict(units="us", fc=4000.0, fy=60000.0, b=12.0, d=24.0, As=8.0, Mu=600.0,
                   bf=30.0, hf=3.0)
-    query = "?" + engine.share_link.share_query(inputs)
+    query = "?" + engine.documents.share_link.share_query(inputs)
     open_app(page, app_url, query)
     show_tab(page, "Calculation sheet")
     frame = page.frame_locator("iframe.rs-sheet")
@@ -131,7 +131,7 @@ T_BEAM = dict(units="us", fc=4000, fy=60000, b=12, bf=30, hf=3, d=24, As=8, Mu=6
 
 
 def _pages(chromium, tmp_path, inputs: dict, paper: str) -> int:
-    link = "http://localhost:8000/?" + engine.share_link.share_query(
+    link = "http://localhost:8000/?" + engine.documents.share_link.share_query(
         {k: v for k, v in inputs.items() if k != "layers"})
     document = calculation_sheet(
         inputs, project="Harbourline Depot, level 2 roof framing, stage 3 review " * 3,
@@ -161,4 +161,4 @@ def test_sheet_prints_on_as_many_pages_as_it_numbers(chromium, tmp_path, paper, 
     Each of the sheet's page blocks ("page N of M" in its running header)
     fits one printed page, so the numbers printed are the pages there are.
     """
-    assert _pages(chromium, tmp_path, inputs, paper) == engine.sheet.PAGES
+    assert _pages(chromium, tmp_path, inputs, paper) == engine.documents.sheet.PAGES

@@ -34,7 +34,7 @@ import re
 import time
 
 from engine.cli import main
-from engine.schedule import (OPTIONAL_COLUMNS, REQUIRED_COLUMNS, ScheduleError, check_schedule,
+from engine.documents.schedule import (OPTIONAL_COLUMNS, REQUIRED_COLUMNS, ScheduleError, check_schedule,
                              parse_schedule, schedule_csv)
 
 from fuzz.support import Account, seed, shown, size

@@ -34,8 +34,8 @@ import re
 from collections.abc import Callable, Iterable, Iterator, Mapping
 from dataclasses import dataclass
 
-from .checks import check
-from .errors import QUOTE_LIMIT, InputError, quoted
+from ..provisions.checks import check
+from ..section.errors import QUOTE_LIMIT, InputError, quoted
 from .share_link import format_number
 
 REQUIRED_COLUMNS = ("mark", "units", "fc", "fy", "b", "d", "As", "Mu")

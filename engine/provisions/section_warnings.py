@@ -6,7 +6,7 @@ the inputs may not describe the beam that will be built.
 
 from __future__ import annotations
 
-from .section import BeamSection, Role
+from ..section.beam import BeamSection, Role
 
 # Table 20.5.1.3.1: the least specified cover for beams not exposed to weather
 # or in contact with ground (to stirrups, ties or main bars), per system.

@@ -9,10 +9,10 @@ from __future__ import annotations
 
 from enum import Enum
 
-from .bars import Bar
+from ..section.bars import Bar
+from ..section.beam import BeamSection, SteelLayer
+from ..section.units import UnitSystem
 from .limits import minimum_steel
-from .section import BeamSection, SteelLayer
-from .units import UnitSystem
 
 # 25.2.1: least clear spacing, a fixed length per system.
 _SPACING_FLOOR = {"us": 1.0, "si": 25.0}

@@ -2,8 +2,8 @@
 
 from __future__ import annotations
 
-from .errors import InputError
-from .validation import number
+from ..section.errors import InputError
+from ..section.validation import number
 
 # Per overhang: (multiple of hf, fraction of the span ln), Table 6.3.2.1.
 _OVERHANG_LIMITS = {"T": (8.0, 1 / 8), "L": (6.0, 1 / 12)}

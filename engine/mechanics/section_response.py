@@ -35,8 +35,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .materials import BLOCK_STRESS_FACTOR, concrete_modulus, modulus_of_rupture, steel_stress
-from .section import BeamSection
+from ..section.beam import BeamSection
+from ..section.materials import BLOCK_STRESS_FACTOR, concrete_modulus, modulus_of_rupture, steel_stress
 
 EPS_LINE_END = 0.0038
 """Strain at which the descending line reaches 0.85 f'c (the model issue 12 states)."""

@@ -35,13 +35,13 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, replace
 
+from ..section.beam import BeamSection, Role, SteelLayer, _both_or_neither, beam_section
+from ..section.errors import InputError
+from ..section.units import quoted_moment
+from ..section.validation import hard_maximum, in_range
 from .checks import CodeCheck, _strain_limit_check
-from .errors import InputError
 from .flexure import FlexuralState, analyse
 from .limits import AsMin, minimum_steel
-from .section import BeamSection, Role, SteelLayer, _both_or_neither, beam_section
-from .units import quoted_moment
-from .validation import hard_maximum, in_range
 
 PROBABLE_STRESS_FACTOR = 1.25
 """Mpr takes the bars' tensile stress as at least 1.25 fy, with φ = 1.0: ACI 318-19 2.3, 18.6.5.1."""

@@ -30,18 +30,18 @@ import math
 from collections.abc import Callable
 from dataclasses import dataclass
 
-from .cracking import cracking_moment
+from ..mechanics.cracking import cracking_moment
+from ..mechanics.root_finding import least_root_from_above
+from ..mechanics.section_response import ResponseModel, forces, response_model
+from ..section.beam import BeamSection, beam_section
+from ..section.errors import InputError
+from ..section.materials import EPS_CU, yield_strain
+from ..section.units import quoted_moment
+from ..section.validation import hard_maximum, range_text
 from .curve import last_ratio
-from .errors import InputError
 from .flexure import analyse
 from .limits import reinforcement_limits
-from .materials import EPS_CU, yield_strain
 from .redistribution import Redistribution, permitted_redistribution
-from .root_finding import least_root_from_above
-from .section import BeamSection, beam_section
-from .section_response import ResponseModel, forces, response_model
-from .units import quoted_moment
-from .validation import hard_maximum, range_text
 
 DEFAULT_POINTS = 60
 MIN_POINTS = 40

@@ -12,21 +12,20 @@ import math
 from dataclasses import dataclass
 from functools import cached_property
 
-from .cracking import cracking_moment
-from .equilibrium import later_equilibrium
+from ..mechanics.cracking import cracking_moment
+from ..mechanics.equilibrium import later_equilibrium
+from ..section.beam import BeamSection, Role, beam_section
+from ..section.materials import beta1
+from ..section.units import quoted_moment
+from ..section.validation import hard_maximum, in_range
 from .flexure import FlexuralState, analyse
-from .materials import beta1
-from .limits import (EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits,
-                     unreachable_reason)
+from .limits import EPS_T_BEAM_MINIMUM, ReinforcementLimits, reinforcement_limits, unreachable_reason
 from .moment_curvature import curvature_ductility
 from .redistribution import Redistribution, permitted_redistribution
 from .required_steel import required_steel_for
 from .scope import scope_warnings
 from .section_warnings import misplaced_tension_steel, section_warnings
-from .section import BeamSection, Role, beam_section
 from .strength_reduction import STRAIN_ROUNDING, TENSION_CONTROL_MARGIN
-from .units import quoted_moment
-from .validation import hard_maximum, in_range
 
 CAUTION = (
     "Rhoscope is a design aid, not a substitute for engineering judgement. "
@@ -138,7 +137,7 @@ class FlexuralCheck:
 def check(*, Mu: object | None = None, **section) -> FlexuralCheck:
     """Check a beam section in flexure to ACI 318-19.
 
-    `section` takes the keywords of `engine.section.beam_section`: units, fc,
+    `section` takes the keywords of `engine.section.beam.beam_section`: units, fc,
     fy, b, d, As, and optionally dt, es, spiral, h, bf, hf, asc, dc, layers.
     Inputs are in the base units of `units` ("us": psi, in, in², kip·ft;
     "si": MPa, mm, mm², kN·m). Raises `InputError` naming the first bad field.

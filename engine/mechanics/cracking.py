@@ -10,8 +10,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .materials import modulus_of_rupture
-from .section import BeamSection
+from ..section.beam import BeamSection
+from ..section.materials import modulus_of_rupture
 
 
 @dataclass(frozen=True)

@@ -6,7 +6,7 @@ still applies to the job at hand.
 
 from __future__ import annotations
 
-from .section import BeamSection
+from ..section.beam import BeamSection
 
 # (f'c minimum, fy for special seismic systems, fy maximum for flexure, fy
 # minimum of the listed grades), per system.

@@ -11,10 +11,10 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .limits import ReinforcementLimits, reinforcement_limits
-from .units import quoted_moment
+from ..section.beam import BeamSection, beam_section
+from ..section.units import quoted_moment
 from .flexure import capacity_point
-from .section import BeamSection, beam_section
+from .limits import ReinforcementLimits, reinforcement_limits
 from .strength_reduction import PHI_TENSION_CONTROLLED, SectionClass
 
 DEFAULT_POINTS = 400

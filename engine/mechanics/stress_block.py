@@ -9,8 +9,8 @@ at the section's depth h when one is given. Concrete tension is neglected
 
 from __future__ import annotations
 
-from .materials import BLOCK_STRESS_FACTOR
-from .section import BeamSection
+from ..section.beam import BeamSection
+from ..section.materials import BLOCK_STRESS_FACTOR
 
 
 def compressed_area(section: BeamSection, a: float) -> tuple[float, float]:

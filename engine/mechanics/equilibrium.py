@@ -19,8 +19,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .materials import BLOCK_STRESS_FACTOR, EPS_CU, steel_stress
-from .section import BeamSection
+from ..section.beam import BeamSection
+from ..section.materials import BLOCK_STRESS_FACTOR, EPS_CU, steel_stress
 from .stress_block import block_force, block_width
 
 RELATIVE_FORCE_TOLERANCE = 1e-13  # of the largest force the steel could carry

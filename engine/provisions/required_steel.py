@@ -4,14 +4,13 @@ from __future__ import annotations
 
 import math
 
+from ..mechanics.root_finding import least_root_from_above
+from ..section.beam import BeamSection
+from ..section.materials import BLOCK_STRESS_FACTOR, EPS_CU, beta1, yield_strain
+from ..section.units import quoted_moment
 from .flexure import capacity_point
 from .limits import EPS_T_BEAM_MINIMUM, areas_reaching_strain
-from .materials import BLOCK_STRESS_FACTOR, EPS_CU, beta1, yield_strain
-from .root_finding import least_root_from_above
-from .section import BeamSection
-from .strength_reduction import (PHI_TENSION_CONTROLLED, TENSION_CONTROL_MARGIN, SectionClass,
-                                 section_class)
-from .units import quoted_moment
+from .strength_reduction import PHI_TENSION_CONTROLLED, TENSION_CONTROL_MARGIN, SectionClass, section_class
 
 _GRID = 24  # transition-zone scan: there φMn may fall as As rises
 _RELATIVE_TOLERANCE = 1e-12

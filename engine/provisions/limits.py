@@ -12,10 +12,10 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .equilibrium import in_block, layer_force
-from .materials import EPS_CU, beta1, yield_strain
-from .section import BeamSection, Role
-from .stress_block import block_force
+from ..mechanics.equilibrium import in_block, layer_force
+from ..mechanics.stress_block import block_force
+from ..section.beam import BeamSection, Role
+from ..section.materials import EPS_CU, beta1, yield_strain
 from .strength_reduction import TENSION_CONTROL_MARGIN
 
 EPS_T_BEAM_MINIMUM = 0.004

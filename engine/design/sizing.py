@@ -31,24 +31,25 @@ import math
 from dataclasses import dataclass, replace
 from enum import Enum
 
-from .arrangement import (Arrangement, arrange, bars_that_fit, clear_spacing, distributions,
-                          fits_within, nearest_distribution, side_cover)
-from .bars import DEFAULT_STIRRUP, STIRRUP_NUMBERS, Bar, bar as standard_bar, bars as standard_bars_in
-from .bars import standard_bars
-from .checks import CAUTION, CodeCheck, check_beam
-from .detailing import (DEFAULT_AGGREGATE, Exposure, Support, maximum_bar_spacing, minimum_clear_spacing,
-                        minimum_cover, minimum_depth, minimum_layer_gap, minimum_steel_area,
-                        minimum_steel_satisfied,
-                        service_stress, skin_depth_limit, skin_reinforcement_required)
-from .errors import InputError
-from .limits import EPS_T_BEAM_MINIMUM, steel_for_strain
-from .materials import yield_strain
-from .required_steel import design_moment, required_steel
-from .root_finding import least_root_from_above
-from .section import BeamSection, SteelLayer
-from .strength_reduction import TENSION_CONTROL_MARGIN
-from .units import UnitSystem, unit_system
-from .validation import hard_maximum, in_range
+from ..mechanics.root_finding import least_root_from_above
+from ..provisions.checks import CAUTION, CodeCheck, check_beam
+from ..provisions.detailing import (DEFAULT_AGGREGATE, Exposure, Support, maximum_bar_spacing,
+                                    minimum_clear_spacing, minimum_cover, minimum_depth, minimum_layer_gap,
+                                    minimum_steel_area, minimum_steel_satisfied, service_stress,
+                                    skin_depth_limit, skin_reinforcement_required)
+from ..provisions.limits import EPS_T_BEAM_MINIMUM, steel_for_strain
+from ..provisions.required_steel import design_moment, required_steel
+from ..provisions.strength_reduction import TENSION_CONTROL_MARGIN
+from ..section.bars import (DEFAULT_STIRRUP, STIRRUP_NUMBERS, Bar, bar as standard_bar,
+                            bars as standard_bars_in)
+from ..section.bars import standard_bars
+from ..section.beam import BeamSection, SteelLayer
+from ..section.errors import InputError
+from ..section.materials import yield_strain
+from ..section.units import UnitSystem, unit_system
+from ..section.validation import hard_maximum, in_range
+from .arrangement import (Arrangement, arrange, bars_that_fit, clear_spacing, distributions, fits_within,
+                          nearest_distribution, side_cover)
 
 _MAX_LAYERS = 2
 _MAX_BARS = 400  # a search bound far past any beam's bar count

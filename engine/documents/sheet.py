@@ -42,18 +42,18 @@ from collections.abc import Mapping
 from dataclasses import dataclass
 from urllib.parse import urlsplit
 
-from .checks import CAUTION, FlexuralCheck, check
-from .equilibrium import in_block, layer_force
-from .errors import InputError
-from .limits import AS_MIN_COEFFICIENTS, forces_at_strain
-from .materials import BETA1_TABLE, EPS_CU, steel_stress
-from .section import BeamSection, Role
-from .stress_block import block_force, compressed_area
+from ..mechanics.equilibrium import in_block, layer_force
+from ..mechanics.stress_block import block_force, compressed_area
+from ..provisions.checks import CAUTION, FlexuralCheck, check
+from ..provisions.limits import AS_MIN_COEFFICIENTS, forces_at_strain
+from ..section.bar_groups import bar_group
+from ..section.beam import BeamSection, Role
+from ..section.errors import InputError
+from ..section.materials import BETA1_TABLE, EPS_CU, steel_stress
+from ..section.units import UnitSystem, unit_system
 from .number_text import significant
-from .bar_groups import bar_group
 from .section_drawing import section_svg
 from .share_link import format_number, read_bars
-from .units import UnitSystem, unit_system
 
 SHEET_INPUTS = ("units", "fc", "fy", "b", "d", "As", "dt", "es", "Mu", "spiral", "h", "bf", "hf",
                 "asc", "dc", "layers")

@@ -13,11 +13,11 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from .equilibrium import in_block, layer_force, solve_neutral_axis
-from .materials import EPS_CU, beta1, steel_stress, yield_strain
-from .section import BeamSection, Role, SteelLayer
+from ..mechanics.equilibrium import in_block, layer_force, solve_neutral_axis
+from ..mechanics.stress_block import block_force
+from ..section.beam import BeamSection, Role, SteelLayer
+from ..section.materials import EPS_CU, beta1, steel_stress, yield_strain
 from .strength_reduction import SectionClass, phi_flexure, section_class
-from .stress_block import block_force
 
 
 @dataclass(frozen=True)

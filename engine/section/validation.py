@@ -3,7 +3,7 @@
 Hard ranges here are the limits of what the engine will compute at all (a
 number, finite, positive, of a physically possible size). Limits of ACI
 318-19's stated scope are softer: such values are computed and warned about
-in `scope.py`.
+in `provisions/scope.py`.
 """
 
 from __future__ import annotations

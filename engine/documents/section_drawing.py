@@ -17,9 +17,9 @@ from __future__ import annotations
 
 import html
 
-from .checks import FlexuralCheck
+from ..provisions.checks import FlexuralCheck
+from ..section.beam import Role
 from .number_text import significant
-from .section import Role
 from .share_link import format_number
 
 _WIDTH = 330.0  # drawing units; the sheet's CSS sets the printed size

@@ -20,7 +20,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from .bars import Bar
+from ..section.bars import Bar
 
 MIN_BARS_PER_LAYER = 2
 """A bar in each bottom corner of the stirrup (common practice, and each stirrup

@@ -37,11 +37,11 @@ from dataclasses import dataclass, field
 from numbers import Real
 from urllib.parse import parse_qsl, urlencode, urlsplit, urlunsplit
 
-from .design import Order
-from .detailing import Support
-from .errors import InputError
-from .units import unit_system
-from .validation import decimal_text
+from ..design.sizing import Order
+from ..provisions.detailing import Support
+from ..section.errors import InputError
+from ..section.units import unit_system
+from ..section.validation import decimal_text
 
 NUMBER_KEYS = ("fc", "fy", "b", "d", "As", "Mu", "dt", "es", "h", "bf", "hf", "asc", "dc")
 CHECK_KEYS = ("units",) + NUMBER_KEYS + ("layers", "spiral")
