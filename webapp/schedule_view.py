@@ -41,7 +41,8 @@ COLUMNS = (  # (field, title, formatter kind, width); moment titles get their un
     ("row", "Row", "int", 45), ("mark", "Mark", "text", 80), ("units", "Units", "text", 45),
     ("phiMn", "φMn", "moment", 95), ("moment_unit", "unit", "text", 55),
     ("section_class", "Class", "text", 140), ("eps_t", "εt", "strain", 75),
-    ("utilization", "Mu/φMn", "ratio", 70), ("ok", "Result", "text", 110),
+    ("utilization", "Mu/φMn", "ratio", 70), ("Mcr", "Mcr", "moment", 90),
+    ("ductility", "μφ", "ratio", 60), ("ok", "Result", "text", 110),
     ("message", "Message", "text", 520),
 )
 _MOMENT_UNIT = {"us": "kip·ft", "si": "kN·m"}
@@ -59,10 +60,10 @@ def shown(value: float | None, digits: int) -> float:
     return float(f"{value:.{digits}g}")
 
 
-def moment_title(units: Sequence[str]) -> str:
-    """φMn's column title with its unit; "see unit" (the unit column) when the rows mix units."""
+def moment_title(units: Sequence[str], name: str = "φMn") -> str:
+    """A moment column's title with its unit; "see unit" (the unit column) when units mix."""
     found = sorted({_MOMENT_UNIT[u] for u in units if u in _MOMENT_UNIT})
-    return f"φMn ({found[0]})" if len(found) == 1 else "φMn (see unit)"
+    return f"{name} ({found[0]})" if len(found) == 1 else f"{name} (see unit)"
 
 
 def row_height(messages: Sequence[str]) -> int:
@@ -96,6 +97,8 @@ def table_data(rows: Sequence[ScheduleRow]) -> dict[str, list]:
         "section_class": [row.section_class or "" for row in rows],
         "eps_t": [math.nan if row.eps_t is None else float(row.eps_t) for row in rows],
         "utilization": [shown(row.utilization, RATIO_DIGITS) for row in rows],
+        "Mcr": [shown(row.Mcr, MOMENT_DIGITS) for row in rows],  # rows with h only
+        "ductility": [shown(row.ductility, RATIO_DIGITS) for row in rows],
         "ok": [VERDICT[state] for state in states],
         "state": states,
         "shade": [SHADE[state] for state in states],
@@ -331,6 +334,7 @@ class ScheduleView(pn.viewable.Viewer):
             units = {u for u, unit in zip(data["units"], data["moment_unit"]) if unit}
             columns = {column.field: column for column in self.table.columns}
             columns["phiMn"].title = moment_title(sorted(units))
+            columns["Mcr"].title = moment_title(sorted(units), "Mcr")
             columns["moment_unit"].visible = len(units) > 1  # only when the units are mixed
             self.progress.visible = False
             self.status.object = ""

@@ -42,7 +42,8 @@ REQUIRED_COLUMNS = ("mark", "units", "fc", "fy", "b", "d", "As", "Mu")
 OPTIONAL_COLUMNS = ("dt", "es", "spiral", "h", "bf", "hf", "asc", "dc", "layers")
 """dt, Es, spiral; overall depth h; flange bf and hf; compression steel asc at dc; further
 tension layers as AREA@DEPTH pairs (the CLI's --layer), separated by spaces."""
-RESULT_COLUMNS = ("phiMn", "section_class", "eps_t", "utilization", "ok", "message")
+RESULT_COLUMNS = ("phiMn", "section_class", "eps_t", "utilization", "Mcr", "ductility", "ok",
+                  "message")
 INPUT_COLUMNS = REQUIRED_COLUMNS + OPTIONAL_COLUMNS
 _CANONICAL = {name.lower(): name for name in INPUT_COLUMNS + RESULT_COLUMNS}
 
@@ -71,8 +72,8 @@ class ScheduleRow:
     `row` is the line in the file (header = 1), as a spreadsheet numbers it;
     `cells` the row's cells by input column name, as text; `inputs` the
     `engine.check` keywords (None when a cell was bad). When computed,
-    `phiMn`, `section_class`, `eps_t`, `utilization` and `ok` are the
-    engine's; `message` names failed checks and warnings, or says why the
+    `phiMn`, `section_class`, `eps_t`, `utilization`, `Mcr`, `ductility`
+    (those two only for a row with h; None without) and `ok` are the engine's; `message` names failed checks and warnings, or says why the
     row could not be computed (then `computed` is False).
     """
 
@@ -86,6 +87,8 @@ class ScheduleRow:
     section_class: str | None = None
     eps_t: float | None = None
     utilization: float | None = None
+    Mcr: float | None = None  # 24.2.3.5, when the row gives h
+    ductility: float | None = None  # curvature ductility μφ, when the row gives h
     ok: bool | None = None
     message: str = ""
 
@@ -521,7 +524,8 @@ def _checked(row: ScheduleRow) -> ScheduleRow:
         row=row.row, mark=row.mark, cells=row.cells, inputs=row.inputs, raw=row.raw,
         computed=True,
         phiMn=result.phiMn, section_class=state.section_class.value, eps_t=state.eps_t,
-        utilization=result.utilization, ok=result.ok, message="; ".join(notes))
+        utilization=result.utilization, Mcr=result.Mcr, ductility=result.ductility,
+        ok=result.ok, message="; ".join(notes))
 
 
 def summarise(rows: Iterable[ScheduleRow]) -> ScheduleSummary:
