@@ -55,3 +55,19 @@ def test_a_unit_switch_converts_the_top_steel(page):
     # 4 in² × 645.16 mm²/in², 21.5 in × 25.4 mm/in (NIST SP 811 B.9)
     assert page.top_As == pytest.approx(2580.64) and page.top_d == pytest.approx(546.1)
     assert page.frame_box.visible
+
+
+def test_the_sheet_carries_the_frame_checks_on_a_page_of_its_own(page):
+    page.frame_switch.value = True
+    page.entries["top_As"].value = "4"
+    page.entries["top_d"].value = "21.5"
+    sheet = page.sheet_view.sheet_html()
+    expected = engine.special_frame_check(units="us", fc=4000, fy=60000, b=14, d=21.5,
+                                          As=3.16, top_As=4.0, top_d=21.5)
+    assert "data-frame" in sheet and "page 3 of 3" in sheet
+    for item in expected.checks:
+        assert f'data-clause="{item.clause}" data-passed="{"true" if item.passed else "false"}"' \
+            in sheet
+    page.frame_switch.value = False
+    sheet = page.sheet_view.sheet_html()
+    assert "data-frame" not in sheet and "page 2 of 2" in sheet

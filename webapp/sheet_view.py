@@ -76,10 +76,11 @@ class SheetView(LazyTab, pn.viewable.Viewer):
     document = param.String(default="", doc="the last sheet made, one HTML document")
 
     def __init__(self, inputs: Callable[[], dict], link: Callable[[], str],
-                 bars: Callable[[], str | None] = lambda: None, **params) -> None:
+                 bars: Callable[[], str | None] = lambda: None,
+                 frame: Callable[[], dict | None] = lambda: None, **params) -> None:
         params.setdefault("date", datetime.date.today().isoformat())
         super().__init__(**params)
-        self._inputs, self._link, self._bars = inputs, link, bars
+        self._inputs, self._link, self._bars, self._frame = inputs, link, bars, frame
         self._qr_for: tuple[str, str | None] | None = None
         # The placeholders show the form of an entry in grey; the sheet prints a
         # blank line for a field left empty, never the example.
@@ -118,7 +119,7 @@ class SheetView(LazyTab, pn.viewable.Viewer):
         arrangement, or None when the area was typed).
         """
         view = cls(page.current_inputs, page.share_url, lambda: _bars_of(page),
-                   **params)
+                   lambda: _frame_of(page), **params)
         page.add_view(title, view)
         view.follow(page, getattr(page, "views", None))
         return view
@@ -151,7 +152,7 @@ class SheetView(LazyTab, pn.viewable.Viewer):
         return calculation_sheet(self._inputs(), project=self.project, mark=self.mark,
                                  engineer=self.engineer, checked_by=self.checked_by,
                                  date=self.date, bars=self._bars(), link=link,
-                                 qr_svg=self._qr(link))
+                                 qr_svg=self._qr(link), frame=self._frame())
 
     def refresh(self) -> None:
         """Make the sheet again and show it; bad inputs leave the last sheet with a message."""
@@ -194,3 +195,10 @@ def _bars_of(page) -> str | None:
         return chosen
     drawn = getattr(page, "drawn", ())
     return ",".join(group or "" for group in drawn) if drawn and any(drawn) else None
+
+
+def _frame_of(page) -> dict | None:
+    """The top steel of the special moment frame checks, when the page asks for them; else None."""
+    if not getattr(page, "frame", False):
+        return None
+    return {"top_As": page.top_As, "top_d": page.top_d}

@@ -46,6 +46,7 @@ from ..mechanics.equilibrium import in_block, layer_force
 from ..mechanics.stress_block import block_force, compressed_area
 from ..provisions.checks import CAUTION, FlexuralCheck, check
 from ..provisions.limits import AS_MIN_COEFFICIENTS, forces_at_strain
+from ..provisions.special_frame import special_frame_check
 from ..section.bar_groups import bar_group
 from ..section.beam import BeamSection, Role
 from ..section.errors import InputError
@@ -911,6 +912,7 @@ def calculation_sheet(
     link: str = "",
     qr_svg: str | None = None,
     title: str = "Rhoscope",
+    frame: Mapping[str, object] | None = None,
 ) -> str:
     """The calculation sheet for `engine.check(**inputs)` as one HTML document.
 
@@ -926,10 +928,14 @@ def calculation_sheet(
     (the engine makes none: it has no dependencies), refused with
     `InputError` if it holds scripts or links.
 
-    The sheet prints on `PAGES` pages, each a block that breaks before the
-    next and starts with the running header (project, mark, date, "page N
-    of M"): the calculation of the strength, then the limits, checks,
-    ductility, caution and link.
+    `frame` asks for the special moment frame checks (ACI 318-19 Chapter 18)
+    with its top steel (`top_As`, `top_d`; empty: none given): they take a
+    page of their own after the others.
+
+    The sheet prints on `PAGES` pages (one more with `frame`), each a block
+    that breaks before the next and starts with the running header (project,
+    mark, date, "page N of M"): the calculation of the strength, then the
+    limits, checks, ductility, caution and link.
     """
     result, steps = _calculate(inputs)
     heading = f"Flexural strength of a {section_title(result.beam)}, ACI 318-19"
@@ -944,8 +950,11 @@ def calculation_sheet(
         f'{_ductility_section(result)}'
         f'{_footer(link, qr_svg)}',
     )
+    if frame is not None:
+        pages += (_frame_section(inputs, frame),)
     body = "".join(
-        f'<div class="page" data-page="{n}">{_running_header(project, mark, date, n, PAGES)}'
+        f'<div class="page" data-page="{n}">'
+        f'{_running_header(project, mark, date, n, len(pages))}'
         f'{content}</div>' for n, content in enumerate(pages, start=1))
     return (
         f'<!DOCTYPE html>\n<html lang="en"><head><meta charset="utf-8">'
@@ -956,4 +965,39 @@ def calculation_sheet(
 
 
 PAGES = 2
-"""Printed pages of every sheet: each fits one Letter or A4 page (tests/browser prints them)."""
+"""Printed pages of every sheet: each fits one Letter or A4 page (tests/browser prints them).
+A sheet with the special moment frame checks has one more."""
+
+
+def _frame_section(inputs: Mapping[str, object], frame: Mapping[str, object]) -> str:
+    """The special moment frame checks of `inputs` with the top steel in `frame`."""
+    section = {key: value for key, value in inputs.items() if key != "Mu" and value is not None}
+    result = special_frame_check(**section, **{key: value for key, value in frame.items()
+                                               if value is not None})
+    r = result.to_dict()
+    moment = html.escape(unit_system(r["units"]).moment)
+    rows = "".join(
+        f'<tr data-clause="{html.escape(item["clause"])}" data-passed='
+        f'"{"true" if item["passed"] else "false"}"><td>{html.escape(item["clause"])}</td>'
+        f'<td>{html.escape(item["title"])}</td><td class="{"pass" if item["passed"] else "fail"}">'
+        f'{"PASS" if item["passed"] else "FAIL"}</td><td>{html.escape(item["detail"])}</td></tr>'
+        for item in r["checks"])
+    rows += "".join(
+        f'<tr data-clause="{html.escape(item["clause"])}" data-passed="none">'
+        f'<td>{html.escape(item["clause"])}</td><td>{html.escape(item["title"])}</td>'
+        f'<td class="fail">NOT CHECKED</td><td>{html.escape(item["reason"])}</td></tr>'
+        for item in r["not_checked"])
+    probable = f"M<sub>pr</sub>+ = {significant(r['Mpr_pos'])} {moment}" + (
+        "" if r["Mpr_neg"] is None else f"; M<sub>pr</sub>− = {significant(r['Mpr_neg'])} {moment}")
+    warnings = "".join(f"<li>{html.escape(text)}</li>" for text in r["warnings"])
+    verdict = ("All section checks of Chapter 18 pass." if r["ok"] else
+               "Not every section check of Chapter 18 passes or could be made.")
+    return (f'<section data-frame><h2>Special moment frame (ACI 318-19 Chapter 18)</h2>'
+            f'<table class="checks"><tr><th>ACI 318-19</th><th>Requirement</th><th>Result</th>'
+            f'<th>Detail</th></tr>{rows}</table>'
+            f'<p class="verdict {"pass" if r["ok"] else "fail"}">{verdict}</p>'
+            f'<p>Probable strength (18.6.5, 1.25 f<sub>y</sub>, φ = 1.0): {probable}. '
+            f'18.6.3.2 compares {html.escape(r["strength_basis"])}.</p>'
+            + (f'<ul class="warnings">{warnings}</ul>' if warnings else "")
+            + f'<p>{html.escape(r["out_of_scope"])}</p>'
+            f'<p class="caution">{html.escape(CAUTION)}</p></section>')

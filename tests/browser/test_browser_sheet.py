@@ -130,13 +130,13 @@ MANY_LAYERS = dict(units="us", fc=5000, fy=60000, b=14, bf=60, hf=5, h=40, asc=2
 T_BEAM = dict(units="us", fc=4000, fy=60000, b=12, bf=30, hf=3, d=24, As=8, Mu=600)
 
 
-def _pages(chromium, tmp_path, inputs: dict, paper: str) -> int:
+def _pages(chromium, tmp_path, inputs: dict, paper: str, frame: dict | None = None) -> int:
     link = "http://localhost:8000/?" + engine.documents.share_link.share_query(
         {k: v for k, v in inputs.items() if k != "layers"})
     document = calculation_sheet(
         inputs, project="Harbourline Depot, level 2 roof framing, stage 3 review " * 3,
         mark="B-204", engineer="R. Ortega", checked_by="M. Lund", date="2025-03-14",
-        bars="#8:4,2", link=link, qr_svg=qr_svg(link))
+        bars="#8:4,2", link=link, qr_svg=qr_svg(link), frame=frame)
     path = tmp_path / "sheet.html"
     path.write_text(document, encoding="utf-8")
     tab = chromium.new_page()
@@ -162,3 +162,10 @@ def test_sheet_prints_on_as_many_pages_as_it_numbers(chromium, tmp_path, paper, 
     fits one printed page, so the numbers printed are the pages there are.
     """
     assert _pages(chromium, tmp_path, inputs, paper) == engine.documents.sheet.PAGES
+
+
+@pytest.mark.parametrize("paper", ["Letter", "A4"])
+def test_a_sheet_with_the_frame_checks_prints_on_one_more_page(chromium, tmp_path, paper):
+    # The special moment frame checks take a page of their own: "page 3 of 3".
+    frame = {"top_As": 2000.0, "top_d": 720.0}  # mm², mm: LONG_GENERAL is in SI
+    assert _pages(chromium, tmp_path, LONG_GENERAL, paper, frame) == engine.documents.sheet.PAGES + 1
