@@ -52,8 +52,9 @@ def test_a_unit_switch_converts_the_top_steel(page):
     page.entries["top_As"].value = "4"
     page.entries["top_d"].value = "21.5"
     page.unit_switch.value = "si"
-    # 4 in² × 645.16 mm²/in², 21.5 in × 25.4 mm/in (NIST SP 811 B.9)
-    assert page.top_As == pytest.approx(2580.64) and page.top_d == pytest.approx(546.1)
+    # 4 in² × 645.16 mm²/in² = 2580.64 -> 2581, 21.5 in × 25.4 mm/in = 546.1 (NIST SP 811
+    # B.9; a switch keeps 4 significant figures)
+    assert page.top_As == 2581.0 and page.top_d == pytest.approx(546.1)
     assert page.frame_box.visible
 
 

@@ -100,9 +100,10 @@ def test_unit_switch_converts_and_keeps_the_same_check(page):
     # 1 in = 25.4 mm exactly (NIST SP 811).
     assert page.b == pytest.approx(14 * 25.4, rel=1e-12)
     assert page.sliders["b"].value == pytest.approx(14 * 25.4, rel=1e-12)
-    # The switch keeps 6 significant figures of each converted value, so the
-    # strength matches the exact conversion to about 1e-6.
-    assert page.result.phiMn == pytest.approx(us.phiMn * KNM_PER_KIPFT, rel=1e-5)
+    # The switch keeps 4 significant figures of each converted value (the precision
+    # engineers write), so the strength matches the exact conversion to about 1e-3.
+    assert page.result.phiMn == pytest.approx(us.phiMn * KNM_PER_KIPFT, rel=2e-3)
+    assert page.result.ok == us.ok and page.result.state.section_class == us.state.section_class
     assert_shows(page, engine.check(**page.inputs().engine_kwargs()))
     assert "kN·m" in page.cards.object
     page.unit_switch.value = "us"
@@ -114,14 +115,15 @@ def test_unit_switch_writes_a_clean_link_and_typed_values_stay_exact(page):
     query = dict(part.split("=", 1) for part in page._written_search[1:].split("&"))
     # B-204 (4000 psi, 60000 psi, 14 x 21.5 in, 3.16 in², 190 kip·ft) by NIST SP 811
     # Appendix B.9 factors (1 psi = 0.00689475729 MPa, 1 in = 25.4 mm, 1 kip·ft =
-    # 1.35581795 kN·m), each worked by hand to 6 significant figures.
-    assert query == {"units": "si", "fc": "27.579", "fy": "413.685", "b": "355.6",
-                     "d": "546.1", "As": "2038.71", "Mu": "257.605"}
+    # 1.35581795 kN·m), each worked by hand to 4 significant figures: 27.579 -> 27.58,
+    # 413.685 -> 413.7, 355.6, 546.1, 2038.71 -> 2039, 257.605 -> 257.6.
+    assert query == {"units": "si", "fc": "27.58", "fy": "413.7", "b": "355.6",
+                     "d": "546.1", "As": "2039", "Mu": "257.6"}
     page.sliders["b"].value = 355.123456789  # typed: used and linked exactly
     assert page.b == 355.123456789 and "b=355.123456789&" in page.share_query()
     page.unit_switch.value = "us"  # no memo now: converted and rounded again
-    assert "b=13.9812&" in page._written_search  # 355.123456789 / 25.4 = 13.98123...
-    assert "fc=4000&" in page._written_search  # 27.579 MPa / 0.00689475729 = 3999.99...
+    assert "b=13.98&" in page._written_search  # 355.123456789 / 25.4 = 13.98123...
+    assert "fc=4000&" in page._written_search  # 27.58 MPa / 0.00689475729 = 4000.14...
     page.apply_link("?units=si&b=355.59999999999997")  # a link's value: exact, not rounded
     assert page.b == 355.59999999999997
 
@@ -278,3 +280,15 @@ def test_the_demo_is_named_only_while_its_inputs_are_untouched(page):
     assert page.demo_note.visible
     page.mu_input.value = "200"
     assert not page.demo_note.visible
+
+
+def test_a_switch_never_rounds_a_verdict_away(page):
+    # B-204's φMn is 277.4095 kip·ft (3.16 × 60 × (21.5 − 3.9832/2) / 12 × 0.9, 22.2.2.4.1);
+    # Mu = 277.4095 fails 9.5.1.1 by a hair. Rounded to 4 figures in SI, Mu = 376.1 kN·m
+    # would pass, so the switch keeps the exact conversion instead (and says the same).
+    page.mu_input.value = "277.4095"
+    assert page.result.ok is False
+    page.unit_switch.value = "si"
+    assert page.result.ok is False
+    # 277.4095 kip·ft × 1.35581795 kN·m per kip·ft (NIST SP 811 B.9) = 376.1168 kN·m, unrounded
+    assert page.Mu == pytest.approx(277.4095 * 1.35581795, rel=1e-8) and page.Mu != 376.1

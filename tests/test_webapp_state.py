@@ -150,13 +150,14 @@ def test_conversion_uses_the_engine_factors():
     assert si.Mu == pytest.approx(190 * 1.35581795, rel=1e-8)
 
 
-def test_switch_rounding_keeps_six_figures_of_every_quantity():
+def test_switch_rounding_keeps_four_figures_of_every_quantity():
     us = Inputs(units="us", fc=4000.0, fy=60000.0, b=14.0, d=21.5, As=2.37, Mu=None,
                 h=24.0, layers=((1.58, 19.0),), cover=None)
     si = rounded_inputs(convert_inputs(us, "si"))
     # 1 in = 25.4 mm, 1 in² = 645.16 mm² exactly (NIST SP 811, Appendix B.9), by hand:
-    # 1.58 in² = 1019.3528 mm² -> 1019.35; 2.37 in² = 1529.0292 mm² -> 1529.03.
-    assert si.layers == ((1019.35, 482.6),) and si.As == 1529.03 and si.h == 609.6
+    # 1.58 in² = 1019.3528 mm² -> 1019; 2.37 in² = 1529.0292 mm² -> 1529; 19 in = 482.6 mm;
+    # 24 in = 609.6 mm (4 significant figures: the precision engineers write).
+    assert si.layers == ((1019.0, 482.6),) and si.As == 1529.0 and si.h == 609.6
     assert si.Mu is None and si.cover is None  # blanks stay blank
 
 

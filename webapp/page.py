@@ -80,13 +80,15 @@ def _nice_ceiling(value: float, step: float) -> float:
     return round(math.ceil(value / step) * step, 12)
 
 
-def _checks(inputs: Inputs) -> bool:
-    """Whether the engine accepts `inputs`."""
+def _outcome(inputs: Inputs) -> tuple | None:
+    """What a reader takes from the check of `inputs`: each check passed or not, and the
+    class; None when the engine refuses them."""
     try:
-        engine.check(**inputs.engine_kwargs())
+        result = engine.check(**inputs.engine_kwargs())
     except (engine.InputError, ArithmeticError):
-        return False
-    return True
+        return None
+    return (tuple((item.clause, item.passed) for item in result.checks),
+            result.state.section_class)
 
 
 def on_server(doc) -> bool:
@@ -412,7 +414,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         else:
             exact = convert_inputs(current, event.new)
             target = rounded_inputs(exact)
-            if not _checks(target) and _checks(exact):
+            if _outcome(target) != _outcome(exact):
                 target = exact  # rounding moved a value across a limit: keep it unrounded
         self._switch_memo = (target, current)
         self.apply(target)

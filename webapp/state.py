@@ -258,7 +258,11 @@ def same_group(group: BarGroup, source, target) -> str | None:
                                                       target).link_text
 
 
-SWITCH_FIGURES = 6  # significant figures a unit switch keeps: 14 in -> 355.6 mm, not 355.59999999999997
+# Significant figures a unit switch keeps: the precision engineers write (14 in -> 355.6 mm,
+# 4000 psi -> 27.58 MPa, 190 kip·ft -> 257.6 kN·m), not 355.59999999999997 or 569.444. The page
+# keeps the exact values underneath: switching straight back restores them, and a switch whose
+# rounding would change the outcome keeps the exact conversion (`webapp.page`).
+SWITCH_FIGURES = 4
 
 
 def rounded_inputs(inputs: Inputs, figures: int = SWITCH_FIGURES) -> Inputs:
@@ -272,7 +276,7 @@ def rounded_inputs(inputs: Inputs, figures: int = SWITCH_FIGURES) -> Inputs:
 
     values = {name: rounded(getattr(inputs, name)) for name in QUANTITY}
     values["layers"] = tuple((rounded(area), rounded(depth)) for area, depth in inputs.layers)
-    return replace(inputs, **values)
+    return with_drawn_areas(replace(inputs, **values))  # bars as drawn keep their exact area
 
 
 def _same_bar(designation: str | None, source, target) -> str | None:

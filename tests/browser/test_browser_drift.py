@@ -20,7 +20,7 @@ import pytest
 from playwright.sync_api import expect
 
 import engine
-from webapp.state import SLIDER_SPANS, parse_query
+from webapp.state import SLIDER_SPANS, SWITCH_FIGURES, parse_query
 
 from app_driver import entry, open_app
 
@@ -193,7 +193,8 @@ def test_unit_switch_over_queued_changes_leaves_no_mixed_units(page, app_url, st
     factor = {name: to_si[q] if target == "si" else 1 / to_si[q] for name, q in quantity.items()}
     expected = {**typed, "d": d_before + 2 * step}
     for name, value in expected.items():
-        # a switch keeps 6 significant figures (webapp.state.SWITCH_FIGURES)
-        assert getattr(inputs, name) == pytest.approx(value * factor[name], rel=1e-5), name
+        # a switch keeps SWITCH_FIGURES (4) significant figures of the exact conversion
+        converted = float(f"{value * factor[name]:.{SWITCH_FIGURES}g}")
+        assert getattr(inputs, name) == pytest.approx(converted, rel=1e-9), name
     assert_all_agree(state)
     expect(page.locator("[data-q=phiMn]").first).to_be_visible()
