@@ -155,6 +155,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         # not an input until both are filled, so adding a row changes nothing.
         self._draft_layer: list | None = None
         self._last_edited: str | None = None  # the field a person changed last, for messages
+        self._link_from_slider = False  # a slider's value_throttled wrote the link
         # Widgets that show a quantity belong to one unit system for their whole
         # life (`_widget_units`): a unit switch builds new ones, so an event the
         # browser sent from an old one before it saw the switch is known to be in
@@ -401,8 +402,13 @@ class BeamCheckPage(pn.viewable.Viewer):
         self.set_inputs(**{name: self._in_use_units(name, typed, units)})
 
     def _on_settled(self, event) -> None:
-        if not self._applying:
-            self._write_link()
+        if self._applying:
+            return
+        self._write_link()
+        # A slider's value_throttled can arrive before its last value (arrow keys in a
+        # row): the settle check writes the link again from the values in use. Only
+        # then: a drag that pauses mid-way must not add a history entry of its own.
+        self._link_from_slider = True
 
     def _on_unit_switch(self, event) -> None:
         if self._applying or event.new == self.units:
@@ -472,7 +478,9 @@ class BeamCheckPage(pn.viewable.Viewer):
             # the slider's last value (arrow keys in a row left fc=4100 in the address
             # bar while 4250 was checked); once input settles it is written from the
             # values in use (no change, no write).
-            self._write_link()
+            if self._link_from_slider:
+                self._link_from_slider = False
+                self._write_link()
 
     def input_widgets(self) -> list:
         """Every widget of the page that holds an input."""
