@@ -33,3 +33,26 @@ def test_mcr_and_ductility_for_a_row_with_h_and_blank_without():
     header, first, second = schedule_csv(schedule).splitlines()[:3]
     assert "Mcr,ductility" in header
     assert second.split(",")[header.split(",").index("Mcr")] == ""
+
+
+def test_a_row_can_ask_for_the_special_moment_frame_checks():
+    # Harbourline Depot B-204 with 4.00 in² of top steel at 21.5 in from the bottom.
+    text = ("mark,units,fc,fy,b,d,As,Mu,frame,top_As,top_d\n"
+            "B-204,us,4000,60000,14,21.5,3.16,190,yes,4,21.5\n"
+            "B-206,us,4000,60000,14,21.5,3.16,190,yes,,\n"  # no top steel: cannot pass
+            "B-207,us,4000,60000,14,21.5,3.16,190,,,\n")  # not asked
+    with_top, without_top, not_asked = run_schedule(text).rows
+    expected = engine.special_frame_check(units="us", fc=4000, fy=60000, b=14, d=21.5,
+                                          As=3.16, top_As=4.0, top_d=21.5)
+    assert with_top.frame_ok is expected.ok
+    assert without_top.frame_ok is False and "frame: not checked" in without_top.message
+    assert not_asked.frame_ok is None and "frame:" not in not_asked.message
+
+
+def test_a_bad_frame_cell_names_its_column():
+    text = ("mark,units,fc,fy,b,d,As,Mu,frame,top_As,top_d\n"
+            "B-204,us,4000,60000,14,21.5,3.16,190,maybe,4,21.5\n"
+            "B-205,us,4000,60000,14,21.5,3.16,190,yes,4 in,21.5\n")
+    first, second = run_schedule(text).rows
+    assert "column frame = 'maybe'" in first.message and not first.computed
+    assert "top_As" in second.message and not second.computed

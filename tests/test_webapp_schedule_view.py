@@ -214,7 +214,7 @@ def test_the_page_download_neutralises_formulas_like_the_cli():
     run(view, "mark,units,fc,fy,b,d,As,Mu,=cmd\n"
               "=HYPERLINK(\"http://attacker.example\"),us,4000,60000,12,21.5,3.16,180,@SUM(1+1)\n")
     downloaded = view._download_file().getvalue().decode("utf-8")
-    assert downloaded.splitlines()[0].endswith(",'=cmd,phiMn,section_class,eps_t,utilization,Mcr,ductility,ok,message")
+    assert downloaded.splitlines()[0].endswith(",'=cmd,phiMn,section_class,eps_t,utilization,Mcr,ductility,frame_ok,ok,message")
     assert downloaded.splitlines()[1].startswith("\"'=HYPERLINK(\"\"http://attacker.example\"\")\",us,")
     assert ",'@SUM(1+1)," in downloaded
 

@@ -42,7 +42,8 @@ COLUMNS = (  # (field, title, formatter kind, width); moment titles get their un
     ("phiMn", "φMn", "moment", 95), ("moment_unit", "unit", "text", 55),
     ("section_class", "Class", "text", 140), ("eps_t", "εt", "strain", 75),
     ("utilization", "Mu/φMn", "ratio", 70), ("Mcr", "Mcr", "moment", 90),
-    ("ductility", "μφ", "ratio", 60), ("ok", "Result", "text", 110),
+    ("ductility", "μφ", "ratio", 60), ("frame", "Ch. 18", "text", 80),
+    ("ok", "Result", "text", 110),
     ("message", "Message", "text", 520),
 )
 _MOMENT_UNIT = {"us": "kip·ft", "si": "kN·m"}
@@ -99,6 +100,9 @@ def table_data(rows: Sequence[ScheduleRow]) -> dict[str, list]:
         "utilization": [shown(row.utilization, RATIO_DIGITS) for row in rows],
         "Mcr": [shown(row.Mcr, MOMENT_DIGITS) for row in rows],  # rows with h only
         "ductility": [shown(row.ductility, RATIO_DIGITS) for row in rows],
+        # the special moment frame checks, for rows that ask for them: a mark and a word
+        "frame": ["" if row.frame_ok is None else "✔ pass" if row.frame_ok else "✘ fail"
+                  for row in rows],
         "ok": [VERDICT[state] for state in states],
         "state": states,
         "shade": [SHADE[state] for state in states],
@@ -240,7 +244,9 @@ class ScheduleView(pn.viewable.Viewer):
             return
         if self._open_check is not None:
             self.status.object = ""
-            self._open_check(share_query(row.inputs))
+            frame = None if row.frame is None else {
+                "frame": True, **{key: value for key, value in row.frame.items() if value is not None}}
+            self._open_check(share_query(row.inputs, frame))
 
     # -- input -----------------------------------------------------------
 

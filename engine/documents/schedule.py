@@ -35,15 +35,18 @@ from collections.abc import Callable, Iterable, Iterator, Mapping
 from dataclasses import dataclass
 
 from ..provisions.checks import check
+from ..provisions.special_frame import special_frame_check
 from ..section.errors import QUOTE_LIMIT, InputError, quoted
 from .share_link import format_number
 
 REQUIRED_COLUMNS = ("mark", "units", "fc", "fy", "b", "d", "As", "Mu")
-OPTIONAL_COLUMNS = ("dt", "es", "spiral", "h", "bf", "hf", "asc", "dc", "layers")
+OPTIONAL_COLUMNS = ("dt", "es", "spiral", "h", "bf", "hf", "asc", "dc", "layers", "frame",
+                    "top_As", "top_d")
+FRAME_COLUMNS = ("frame", "top_As", "top_d")  # the special moment frame checks, asked per row
 """dt, Es, spiral; overall depth h; flange bf and hf; compression steel asc at dc; further
 tension layers as AREA@DEPTH pairs (the CLI's --layer), separated by spaces."""
-RESULT_COLUMNS = ("phiMn", "section_class", "eps_t", "utilization", "Mcr", "ductility", "ok",
-                  "message")
+RESULT_COLUMNS = ("phiMn", "section_class", "eps_t", "utilization", "Mcr", "ductility",
+                  "frame_ok", "ok", "message")
 INPUT_COLUMNS = REQUIRED_COLUMNS + OPTIONAL_COLUMNS
 _CANONICAL = {name.lower(): name for name in INPUT_COLUMNS + RESULT_COLUMNS}
 
@@ -89,6 +92,8 @@ class ScheduleRow:
     utilization: float | None = None
     Mcr: float | None = None  # 24.2.3.5, when the row gives h
     ductility: float | None = None  # curvature ductility μφ, when the row gives h
+    frame: dict | None = None  # the frame checks asked for: their top steel (None: not asked)
+    frame_ok: bool | None = None  # every Chapter 18 section check passed and could be made
     ok: bool | None = None
     message: str = ""
 
@@ -437,7 +442,9 @@ def _parse_row(number: int, cells: list[str], layout: _Layout) -> ScheduleRow:
                     raise _CellError(name, text, "us or si")
                 inputs["units"] = text
             elif name == "spiral":
-                inputs["spiral"] = _flag(text)
+                inputs["spiral"] = _flag("spiral", text)
+            elif name in FRAME_COLUMNS:
+                continue  # read below: they ask for checks of their own, not for `check`
             elif name == "layers":
                 if text:
                     inputs["layers"] = _layers(text)
@@ -445,9 +452,17 @@ def _parse_row(number: int, cells: list[str], layout: _Layout) -> ScheduleRow:
                 inputs[name] = float(text)
             elif text or name in REQUIRED_COLUMNS:
                 _refuse_number(name, text)
+        frame = None
+        if _flag("frame", kept.get("frame", "")):
+            frame = {}
+            for name in ("top_As", "top_d"):
+                text = kept.get(name, "")
+                if text and not _NUMBER_TEXT.fullmatch(text):
+                    _refuse_number(name, text)
+                frame[name] = float(text) if text else None
     except _CellError as error:
         return failed(str(error))
-    return ScheduleRow(row=number, mark=mark, cells=kept, inputs=inputs, raw=raw)
+    return ScheduleRow(row=number, mark=mark, cells=kept, inputs=inputs, raw=raw, frame=frame)
 
 
 class _CellError(ValueError):
@@ -477,10 +492,10 @@ def _layers(text: str) -> list[tuple[float, float]]:
     return pairs
 
 
-def _flag(text: str) -> bool:
+def _flag(column: str, text: str) -> bool:
     lowered = text.lower()
     if lowered not in _TRUE + _FALSE:
-        raise _CellError("spiral", text, "yes or no (true/false, 1/0; empty means no)")
+        raise _CellError(column, text, "yes or no (true/false, 1/0; empty means no)")
     return lowered in _TRUE
 
 
@@ -520,12 +535,22 @@ def _checked(row: ScheduleRow) -> ScheduleRow:
     state = result.state
     notes = [f"fails {c.clause} {c.title}: {c.detail}" for c in result.checks if not c.passed]
     notes += [f"warning: {w}" for w in result.warnings]
+    frame_ok = None
+    if row.frame is not None:
+        section = {key: value for key, value in row.inputs.items() if key != "Mu"}
+        frame = special_frame_check(**section, **{key: value for key, value in row.frame.items()
+                                                  if value is not None})
+        frame_ok = frame.ok
+        notes += [f"frame: fails {c.clause} {c.title}: {c.detail}" for c in frame.checks
+                  if not c.passed]
+        notes += [f"frame: not checked {n.clause} {n.title}: {n.reason}"
+                  for n in frame.not_checked]
     return ScheduleRow(
         row=row.row, mark=row.mark, cells=row.cells, inputs=row.inputs, raw=row.raw,
         computed=True,
         phiMn=result.phiMn, section_class=state.section_class.value, eps_t=state.eps_t,
         utilization=result.utilization, Mcr=result.Mcr, ductility=result.ductility,
-        ok=result.ok, message="; ".join(notes))
+        frame=row.frame, frame_ok=frame_ok, ok=result.ok, message="; ".join(notes))
 
 
 def summarise(rows: Iterable[ScheduleRow]) -> ScheduleSummary:
