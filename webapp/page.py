@@ -156,6 +156,7 @@ class BeamCheckPage(pn.viewable.Viewer):
         self._draft_layer: list | None = None
         self._last_edited: str | None = None  # the field a person changed last, for messages
         self._link_from_slider = False  # a slider's value_throttled wrote the link
+        self._layer_bars_boxes: list = []  # filled with the layer rows
         # Widgets that show a quantity belong to one unit system for their whole
         # life (`_widget_units`): a unit switch builds new ones, so an event the
         # browser sent from an old one before it saw the switch is known to be in
@@ -828,8 +829,7 @@ class BeamCheckPage(pn.viewable.Viewer):
     def _show_bars(self, inputs: Inputs) -> None:
         """Each bars box shows its layer's bars as drawn (blank: the area was typed)."""
         groups = drawn_groups(inputs)
-        boxes = [self.bars_input] + [row.objects[2] for row in self.layer_rows.objects[1:]
-                                     if isinstance(row, (pn.Row, pn.FlexBox)) and len(row.objects) > 3]
+        boxes = [self.bars_input] + self._layer_bars_boxes
         fields = ["As bars"] + [f"layer {index + 2} bars" for index in range(len(boxes) - 1)]
         self._applying = True
         try:
@@ -854,6 +854,7 @@ class BeamCheckPage(pn.viewable.Viewer):
                 f'{escape(system.length)} (sliders)</div>')
 
     def _layer_row_widgets(self, inputs: Inputs) -> list:
+        self._layer_bars_boxes = []  # each extra layer's bars box, in layer order
         rows = [pn.pane.HTML(self._first_layer_text(inputs), stylesheets=[TEXT_CSS],
                              margin=(0, 10))]
         area_unit, length_unit = unit_label(inputs.units, "As"), unit_label(inputs.units, "d")
@@ -883,6 +884,7 @@ class BeamCheckPage(pn.viewable.Viewer):
                                             if units == "us" else "e.g. 2 No. 25", width=90,
                                             css_classes=[f"rs-layer-{index + 2}-bars"])
             bars_box.param.watch(lambda e, i=index: self._on_bars(i + 1, units, e.new), "value")
+            self._layer_bars_boxes.append(bars_box)
             rows.append(pn.FlexBox(area_box, depth_box, bars_box, remove, margin=0,
                                    gap="0 4px"))
         if self._draft_layer is not None:

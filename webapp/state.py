@@ -18,6 +18,8 @@ plain-text message naming the field.
 
 from __future__ import annotations
 
+import functools
+
 from dataclasses import dataclass, field, fields, replace
 
 import engine
@@ -185,9 +187,17 @@ def default_inputs(units: str = "us") -> Inputs:
 
 def is_demo(inputs: Inputs) -> bool:
     """Whether `inputs` are the demo beam untouched, in either unit system (a switch included)."""
-    other = "si" if inputs.units == "us" else "us"
-    return inputs in (default_inputs(inputs.units),
-                      rounded_inputs(convert_inputs(default_inputs(other), inputs.units)))
+    return inputs in _demo_forms(inputs.units)
+
+
+@functools.cache
+def _demo_forms(units: str) -> tuple[Inputs, Inputs]:
+    """The demo beam in `units`: as defined, and as a switch from the other system shows it.
+
+    Cached: the page asks on every redraw, and the answer never changes.
+    """
+    other = "si" if units == "us" else "us"
+    return default_inputs(units), rounded_inputs(convert_inputs(default_inputs(other), units))
 
 
 def convert_inputs(inputs: Inputs, units: str) -> Inputs:
