@@ -88,3 +88,11 @@ def test_the_sheet_states_the_bars_as_drawn(page):
     assert bars_text("4x29,", "si") == "4 No. 29 + area typed (2 layers, as drawn)"
     from webapp.sheet_view import _bars_of
     assert _bars_of(page) == "4x9,2x8"
+
+
+def test_a_link_with_bars_in_an_extra_layer_shows_them_in_its_box(page):
+    # 2 #8 = 2 × 0.79 in² (ASTM A615 Table 1)
+    page.apply_link("?units=us&fc=4000&fy=60000&b=14&d=21.5&As=3.16&Mu=190&layer=1.58@19"
+                    "&drawn=,2x8")
+    assert page.drawn == (None, "2x8")
+    assert page.layer_rows[1][2].value == "2 #8" and page.bars_input.value == ""

@@ -520,9 +520,9 @@ class BeamCheckPage(pn.viewable.Viewer):
             with param.discard_events(self):
                 self.drawn = current.drawn  # an area was changed away from its bars
             inputs = current
-        self._show_bars(inputs)
         self.demo_note.visible = is_demo(inputs)
         self._sync_section_widgets(inputs)
+        self._show_bars(inputs)  # after the layer rows are rebuilt: their boxes show the bars
         self.flange_note.object = self._flange_note(inputs)
         if self.refusals:
             self._show_unchecked(inputs, next(iter(self.refusals.values())))
